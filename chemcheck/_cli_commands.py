@@ -1,0 +1,3 @@
+"""Subcommands beyond ``check``; each registers itself with :func:`chemcheck.cli.command`."""
+
+from __future__ import annotations

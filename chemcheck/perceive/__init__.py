@@ -1,0 +1,265 @@
+"""What the molecules are: nitrogen sites, reactive groups, Lewis acids, and agent kinds.
+
+Pure functions over RDKit molecules; the catalog of patterns is data (``catalog.py``).
+"""
+
+from __future__ import annotations
+
+from dataclasses import dataclass, field
+
+from rdkit import Chem
+
+from .catalog import GROUPS, NITROGEN_CLASSES, compiled
+
+__all__ = [
+    "NitrogenSite",
+    "GroupMatch",
+    "Perception",
+    "nitrogen_sites",
+    "reactive_groups",
+    "lewis_acid_centres",
+    "is_hindered_base",
+    "perceive",
+    "agent_kind",
+    "NITROGEN_KINDS",
+    "GROUP_NAMES",
+]
+
+NITROGEN_KINDS = tuple(c.kind for c in NITROGEN_CLASSES)
+GROUP_NAMES = tuple(g.name for g in GROUPS)
+_BASIC = {c.kind: c.basic for c in NITROGEN_CLASSES}
+
+
+@dataclass(frozen=True)
+class NitrogenSite:
+    atom_index: int
+    kind: str
+    basic: bool
+    hydrogens: int
+    charge: int
+    aromatic: bool
+
+
+@dataclass(frozen=True)
+class GroupMatch:
+    name: str
+    atoms: tuple[int, ...]  # the SMARTS match; atoms[0] is the reactive centre
+    detail: str = ""  # leaving group, alpha-H count, ...
+
+    @property
+    def centre(self) -> int:
+        return self.atoms[0]
+
+
+def nitrogen_sites(mol: Chem.Mol) -> list[NitrogenSite]:
+    """One site per nitrogen atom, classified by the first catalog class that matches it."""
+    kind_of: dict[int, str] = {}
+    for cls in NITROGEN_CLASSES:
+        for smarts in cls.smarts:
+            for match in mol.GetSubstructMatches(compiled(smarts), uniquify=False):
+                idx = match[0]
+                if mol.GetAtomWithIdx(idx).GetAtomicNum() == 7 and idx not in kind_of:
+                    kind_of[idx] = cls.kind
+    sites = []
+    for atom in mol.GetAtoms():
+        if atom.GetAtomicNum() != 7:
+            continue
+        kind = kind_of.get(atom.GetIdx(), "other_nitrogen")
+        sites.append(
+            NitrogenSite(
+                atom_index=atom.GetIdx(),
+                kind=kind,
+                basic=_BASIC[kind],
+                hydrogens=atom.GetTotalNumHs(),
+                charge=atom.GetFormalCharge(),
+                aromatic=atom.GetIsAromatic(),
+            )
+        )
+    return sites
+
+
+def _alpha_h(mol: Chem.Mol, carbonyl: int) -> int:
+    atom = mol.GetAtomWithIdx(carbonyl)
+    return sum(
+        n.GetTotalNumHs() for n in atom.GetNeighbors() if n.GetAtomicNum() == 6 and not n.GetIsAromatic()
+    )
+
+
+def reactive_groups(mol: Chem.Mol) -> list[GroupMatch]:
+    out: list[GroupMatch] = []
+    for g in GROUPS:
+        seen: set[int] = set()
+        for match in mol.GetSubstructMatches(compiled(g.smarts)):
+            if match[0] in seen:
+                continue
+            seen.add(match[0])
+            detail = ""
+            if g.name in ("alkyl_halide", "aryl_halide", "acid_halide", "sulfonyl_halide"):
+                detail = mol.GetAtomWithIdx(match[-1]).GetSymbol()
+            elif g.name == "alkyl_sulfonate":
+                detail = "sulfonate"
+            elif g.name == "ketone":
+                detail = f"{_alpha_h(mol, match[0])} alpha-H"
+            out.append(GroupMatch(g.name, tuple(match), detail))
+    for idx in lewis_acid_centres(mol):
+        out.append(GroupMatch("lewis_acid", (idx,), mol.GetAtomWithIdx(idx).GetSymbol()))
+    if _silver_oxide(mol):
+        ag = next(a.GetIdx() for a in mol.GetAtoms() if a.GetSymbol() == "Ag")
+        out.append(GroupMatch("silver_oxide", (ag,), "Ag2O"))
+    return out
+
+
+# Metals and metalloids whose halides and triflates act as Lewis acids in organic synthesis.
+_LA_METALS = frozenset("B Al Ga In Fe Ti Sn Zn Sc Bi Zr Hf Cu Mg Yb La Ce Sm Hg".split())
+_HALOGENS = frozenset((9, 17, 35, 53))
+_TRIFLATE = "[OX2]S(=O)(=O)C(F)(F)F"
+
+
+def _ligand_count(mol: Chem.Mol, atom: Chem.Atom, triflate_o: set[int]) -> int:
+    n = 0
+    for nb in atom.GetNeighbors():
+        if nb.GetAtomicNum() in _HALOGENS or nb.GetIdx() in triflate_o:
+            n += 1
+        elif nb.GetAtomicNum() == 8 and atom.GetSymbol() in ("Ti", "Al", "Zr", "Hf", "Sn", "B") and any(
+            x.GetAtomicNum() == 6 for x in nb.GetNeighbors()
+        ):
+            # alkoxide ligand (Ti(OiPr)4), or an ether bound to BF3 (counted with the halides)
+            n += 1 if atom.GetSymbol() != "B" else 0
+    return n
+
+
+def lewis_acid_centres(mol: Chem.Mol) -> list[int]:
+    """Atoms of Lewis-acidic metal halides, triflates and alkoxides (drawn covalent or ionic).
+
+    Borohydrides and metal hydrides are reductants, tetrafluoroborate and tetrachloroaluminate
+    are saturated anions, boronic acids and esters are weak: none of them counts.
+    """
+    triflate_o = {m[0] for m in mol.GetSubstructMatches(compiled(_TRIFLATE))}
+    anions = sum(
+        1
+        for a in mol.GetAtoms()
+        if a.GetFormalCharge() < 0
+        and a.GetDegree() == 0
+        and a.GetAtomicNum() in _HALOGENS
+    ) + sum(1 for i in triflate_o if mol.GetAtomWithIdx(i).GetFormalCharge() < 0)
+    centres = []
+    for atom in mol.GetAtoms():
+        sym = atom.GetSymbol()
+        if sym not in _LA_METALS and sym != "Si":
+            continue
+        if atom.GetTotalNumHs() > 0:
+            continue
+        ligands = _ligand_count(mol, atom, triflate_o)
+        if sym == "Si":
+            # silyl triflates and iodides are Lewis acids; chlorosilanes barely
+            if any(nb.GetIdx() in triflate_o or nb.GetAtomicNum() == 53 for nb in atom.GetNeighbors()):
+                centres.append(atom.GetIdx())
+            continue
+        if sym == "B":
+            halos = sum(1 for nb in atom.GetNeighbors() if nb.GetAtomicNum() in _HALOGENS)
+            if halos >= 3 and atom.GetDegree() <= 4 and not (halos == 4):
+                centres.append(atom.GetIdx())
+            continue
+        if atom.GetFormalCharge() < 0:
+            continue  # AlCl4-, FeCl4-: saturated
+        if ligands >= 1:
+            centres.append(atom.GetIdx())
+        elif atom.GetFormalCharge() >= 2 and atom.GetDegree() == 0 and anions >= 1:
+            centres.append(atom.GetIdx())  # ionic drawing: [Al+3].[Cl-].[Cl-].[Cl-]
+        elif sym == "Al" and atom.GetDegree() >= 3 and atom.GetFormalCharge() == 0:
+            centres.append(atom.GetIdx())  # trialkylaluminium
+    return centres
+
+
+def _silver_oxide(mol: Chem.Mol) -> bool:
+    symbols = [a.GetSymbol() for a in mol.GetAtoms()]
+    return "Ag" in symbols and "O" in symbols and "C" not in symbols and "N" not in symbols
+
+
+_HINDERED = tuple(
+    compiled(s)
+    for s in (
+        # tertiary amine with two branched alkyl groups (DIPEA type)
+        "[NX3;H0;+0;!$(N-a)]([CX4;H1,H0]([#6])[#6])[CX4;H1,H0]([#6])[#6]",
+        # pyridine flanked by two alkyl groups (2,6-lutidine type)
+        "[nX2;$(n(:c-[CX4]):c-[CX4])]",
+        # tertiary alkoxide (tert-butoxide type)
+        "[OX1-][CX4]([#6])([#6])[#6]",
+        # metal amide with two branched or silyl groups (LDA, HMDS type)
+        "[#7-]([CX4;H1]([#6])[#6])[CX4;H1]([#6])[#6]",
+        "[#7-]([Si])[Si]",
+        # bicyclic amidines (DBU, DBN): basic, poor nucleophiles
+        "[NX2;R]=[CX3;R]-[NX3;R]",
+    )
+)
+
+
+def is_hindered_base(mol: Chem.Mol) -> bool:
+    return any(mol.HasSubstructMatch(p) for p in _HINDERED)
+
+
+@dataclass(frozen=True)
+class Perception:
+    nitrogens: tuple[NitrogenSite, ...]
+    groups: tuple[GroupMatch, ...]
+    hindered_base: bool
+    kind: str
+    group_names: frozenset[str] = field(default=frozenset())
+
+    def has(self, *names: str) -> bool:
+        return any(n in self.group_names for n in names)
+
+    def groups_named(self, *names: str) -> list[GroupMatch]:
+        return [g for g in self.groups if g.name in names]
+
+    @property
+    def basic_nitrogens(self) -> list[NitrogenSite]:
+        return [s for s in self.nitrogens if s.basic]
+
+
+_BASE_GROUPS = ("alkoxide", "phenoxide", "hydroxide", "carbonate", "phosphate_base", "hydride_ion", "metal_amide", "organometallic_base", "carboxylate")
+_REDUCTANT_GROUPS = ("boron_hydride", "aluminium_hydride", "silicon_hydride", "dihydrogen")
+_ACID_GROUPS = ("hydrogen_halide", "sulfonic_acid", "perfluoro_acid", "nitric_acid", "carboxylic_acid")
+_ELECTROPHILES = (
+    "acid_halide", "chloroformate", "carbamoyl_chloride", "carbonyl_dihalide", "anhydride", "dicarbonate",
+    "sulfonic_anhydride", "sulfonyl_halide", "inorganic_acid_chloride", "isocyanate", "alkyl_halide",
+    "alkyl_sulfonate",
+)
+
+
+def agent_kind(nitrogens, groups: list[GroupMatch], hint: str | None) -> str:
+    """base, acid, lewis_acid, solvent, reductant, catalyst, oxidant or other."""
+    names = {g.name for g in groups}
+    if "lewis_acid" in names:
+        return "lewis_acid"
+    if hint in ("solvent", "catalyst"):
+        return hint
+    if names & set(_REDUCTANT_GROUPS):
+        return "reductant"
+    if names & {"peroxide", "metal_oxo_oxidant"}:
+        return "oxidant"
+    if names & set(_ACID_GROUPS) or "ammonium" in names:
+        basic_n = [s for s in nitrogens if s.basic]
+        if not basic_n or names & {"hydrogen_halide", "sulfonic_acid"} or "ammonium" in names:
+            return "acid"
+    if names & set(_BASE_GROUPS) - {"carboxylate"}:
+        return "base"
+    if not names & set(_ELECTROPHILES) and any(s.basic for s in nitrogens):
+        return "base"
+    if "carboxylate" in names:
+        return "base"
+    if hint in ("base", "acid", "reductant", "oxidant", "lewis_acid"):
+        return hint
+    return "other"
+
+
+def perceive(mol: Chem.Mol, hint: str | None = None) -> Perception:
+    sites = nitrogen_sites(mol)
+    groups = reactive_groups(mol)
+    return Perception(
+        nitrogens=tuple(sites),
+        groups=tuple(groups),
+        hindered_base=is_hindered_base(mol),
+        kind=agent_kind(sites, groups, hint),
+        group_names=frozenset(g.name for g in groups),
+    )

@@ -1,0 +1,412 @@
+"""What the chemist typed, read into components with roles.
+
+A reaction is written ``reactants>agents>products`` (reaction SMILES); each side is a list of
+fragments separated by ``.``. A *component* is what the chemist weighs: one molecule, or a salt
+made of several fragments. Fragments are joined into one component when
+
+* adjacent fragments carry charges that cancel (``[Na+].[O-]C(C)=O``), or
+* a CXSMILES fragment group says so (``... |f:0.1|``; fragment indices count every fragment in
+  the order they appear in the text, reactants, then agents, then products), or
+* the caller names them together (``join=["Cl.NCc1ccccc1"]``, as the keys of ``amounts`` do).
+
+Each fragment may be SMILES or a reagent name; SMILES wins when a token reads as both.
+"""
+
+from __future__ import annotations
+
+import re
+from collections.abc import Iterable, Sequence
+from dataclasses import dataclass, field
+
+from rdkit import Chem
+from rdkit.Chem import Descriptors, rdMolDescriptors
+
+from . import _rdlog
+from .errors import LimitError, ParseError
+from .molecule import read_smiles
+from .names import kind_for_inchikey, lookup_name, name_for_inchikey
+
+__all__ = ["Component", "Reaction", "parse_reaction", "ROLES", "MAX_COMPONENTS", "MAX_ATOMS"]
+
+ROLES = ("reactant", "agent", "product")
+MAX_TEXT = 20_000
+MAX_COMPONENTS = 100
+MAX_ATOMS = 2_000  # heavy atoms in one component
+
+_CX = re.compile(r"\s+\|([^|]*)\|\s*$")
+_FRAG_GROUP = re.compile(r"f:([\d.,]+)")
+
+
+@dataclass(frozen=True)
+class Fragment:
+    text: str
+    start: int  # 0-based offset in the reaction text
+    side: int  # 0 reactants, 1 agents, 2 products
+    smiles: str = ""
+    mol: Chem.Mol | None = None
+    source: str = "smiles"
+    name: str | None = None
+    kind_hint: str | None = None
+    sanitization: str = "full"
+    note: str | None = None
+
+
+@dataclass(eq=False)
+class Component:
+    """One thing weighed or drawn: a molecule or a salt, with its role in the reaction."""
+
+    index: int
+    role: str
+    text: str
+    mol: Chem.Mol
+    smiles: str
+    formula: str
+    mw: float
+    inchikey: str
+    name: str | None
+    source: str
+    sanitization: str
+    notes: tuple[str, ...]
+    fragments: tuple[str, ...]
+    span: tuple[int, int]
+    kind: str | None = None  # perceived kind; filled in by perception for agents
+    kind_hint: str | None = None
+
+    @property
+    def charge(self) -> int:
+        return sum(a.GetFormalCharge() for a in self.mol.GetAtoms())
+
+    @property
+    def label(self) -> str:
+        """How messages name the component: the text as written, with the name if it differs."""
+        if self.name and self.name.casefold() != self.text.casefold():
+            return f"{self.text} ({self.name})"
+        return self.text
+
+    def __repr__(self) -> str:
+        return f"Component({self.index}, {self.role!r}, {self.text!r}, {self.smiles!r})"
+
+
+@dataclass(eq=False)
+class Reaction:
+    text: str
+    components: list[Component]
+    cx_fields: str | None = None
+    mapped: bool = False
+    notes: list[str] = field(default_factory=list)
+
+    def by_role(self, role: str) -> list[Component]:
+        return [c for c in self.components if c.role == role]
+
+    @property
+    def reactants(self) -> list[Component]:
+        return self.by_role("reactant")
+
+    @property
+    def agents(self) -> list[Component]:
+        return self.by_role("agent")
+
+    @property
+    def products(self) -> list[Component]:
+        return self.by_role("product")
+
+    def find(self, text: str) -> Component | None:
+        for c in self.components:
+            if c.text == text:
+                return c
+        return None
+
+
+def _split_fragments(side_text: str, side: int, offset: int) -> list[tuple[str, int]]:
+    """Split one side on '.' outside brackets; keep each piece's offset."""
+    pieces: list[tuple[str, int]] = []
+    depth = 0
+    start = 0
+    for i, ch in enumerate(side_text):
+        if ch == "[":
+            depth += 1
+        elif ch == "]":
+            depth = max(depth - 1, 0)
+        elif ch == "." and depth == 0:
+            pieces.append((side_text[start:i], offset + start))
+            start = i + 1
+    pieces.append((side_text[start:], offset + start))
+    out = []
+    for text, off in pieces:
+        stripped = text.strip()
+        lead = len(text) - len(text.lstrip())
+        out.append((stripped, off + lead))
+    if len(out) == 1 and out[0][0] == "":
+        return []
+    return out
+
+
+_SMILES_LIKE = re.compile(r"^[A-Za-z0-9@+\-\[\]()=#$%/\\.:*~]+$")
+
+
+def _looks_like_smiles(token: str) -> bool:
+    if not _SMILES_LIKE.match(token):
+        return False
+    return any(ch in token for ch in "[]()=#@%") or any(ch.isdigit() for ch in token) or (
+        re.fullmatch(r"(Cl|Br|[BCNOPSFI]|[cnops])+", token) is not None
+    )
+
+
+def _read_fragment(text: str, start: int, side: int, number: int) -> Fragment:
+    if text == "":
+        raise ParseError("empty component (two dots in a row, or a dot at an end)", component=number, text=text)
+    smiles_error: ParseError | None = None
+    if any(ch.isspace() for ch in text):
+        # RDKit would read "acetyl chloride" as the SMILES "acetyl" named "chloride".
+        hit = lookup_name(text)
+        if hit is None:
+            raise ParseError("not a known reagent name (SMILES has no spaces)", component=number, text=text)
+        rm = read_smiles(hit.smiles, component=number, text=text)
+        return Fragment(
+            text, start, side, hit.smiles, rm.mol, hit.source, hit.name, hit.kind, rm.sanitization, rm.note
+        )
+    try:
+        rm = read_smiles(text, component=number, text=text)
+        return Fragment(text, start, side, text, rm.mol, "smiles", None, None, rm.sanitization, rm.note)
+    except ParseError as exc:
+        smiles_error = exc
+    hit = lookup_name(text, database=not _looks_like_smiles(text))
+    if hit is not None:
+        try:
+            rm = read_smiles(hit.smiles, component=number, text=text)
+        except ParseError as exc:
+            raise ParseError(
+                f"the name resolved to '{hit.smiles}', which cannot be read ({exc.reason})",
+                component=number,
+                text=text,
+            ) from None
+        return Fragment(
+            text, start, side, hit.smiles, rm.mol, hit.source, hit.name, hit.kind, rm.sanitization, rm.note
+        )
+    if _looks_like_smiles(text):
+        raise smiles_error
+    raise ParseError("neither valid SMILES nor a known reagent name", component=number, text=text)
+
+
+def _merge_dotted_names(located: list[tuple[str, int, int]]) -> list[tuple[str, int, int]]:
+    """Rejoin names that contain a dot, such as ``BF3.OEt2`` or ``EDC.HCl``, split by the reader.
+
+    Two adjacent tokens are one reagent when, joined with '.', they are a name of the package's
+    own table and they are not both valid SMILES (a SMILES always wins).
+    """
+    if len(located) < 2:
+        return located
+    from .names import lookup_name
+
+    out: list[tuple[str, int, int]] = []
+    i = 0
+    while i < len(located):
+        if i + 1 < len(located) and located[i][2] == located[i + 1][2]:
+            a, b = located[i][0], located[i + 1][0]
+            if a and b and lookup_name(f"{a}.{b}", database=False) is not None:
+                if not (_parses(a) and _parses(b)):
+                    out.append((f"{a}.{b}", located[i][1], located[i][2]))
+                    i += 2
+                    continue
+        out.append(located[i])
+        i += 1
+    return out
+
+
+def _parses(text: str) -> bool:
+    with _rdlog.captured():
+        return Chem.MolFromSmiles(text) is not None
+
+
+def _cx_groups(cx: str | None) -> list[list[int]]:
+    if not cx:
+        return []
+    groups = []
+    m = _FRAG_GROUP.search(cx)
+    if m:
+        for part in m.group(1).split(","):
+            if part:
+                groups.append([int(x) for x in part.split(".") if x != ""])
+    return groups
+
+
+def _group(fragments: list[Fragment], cx: list[list[int]], join: Sequence[str]) -> list[list[int]]:
+    """Indices of fragments forming each component, in order."""
+    owner = list(range(len(fragments)))
+
+    def unite(idx: Iterable[int]) -> None:
+        idx = sorted(set(idx))
+        root = min(owner[i] for i in idx)
+        olds = {owner[i] for i in idx}
+        for k in range(len(owner)):
+            if owner[k] in olds:
+                owner[k] = root
+
+    for grp in cx:
+        bad = [i for i in grp if i < 0 or i >= len(fragments)]
+        if bad:
+            raise ParseError(
+                f"fragment group names fragment {bad[0]}, but there are {len(fragments)} fragments "
+                "(counted from 0)",
+                text="|f:...|",
+            )
+        sides = {fragments[i].side for i in grp}
+        if len(sides) > 1:
+            raise ParseError("a fragment group spans both sides of an arrow", text="|f:...|")
+        unite(grp)
+    for key in join:
+        parts = [p.strip() for p in key.split(".")]
+        if len(parts) < 2:
+            continue
+        n = len(parts)
+        for i in range(len(fragments) - n + 1):
+            window = fragments[i : i + n]
+            if [f.text for f in window] == parts and len({f.side for f in window}) == 1:
+                unite(range(i, i + n))
+                break
+    # adjacent charged fragments whose charges cancel
+    i = 0
+    while i < len(fragments):
+        charge = _charge(fragments[i].mol)
+        if charge != 0:
+            total = 0
+            for j in range(i, len(fragments)):
+                if fragments[j].side != fragments[i].side:
+                    break
+                total += _charge(fragments[j].mol)
+                if total == 0:
+                    if j > i:
+                        unite(range(i, j + 1))
+                    i = j
+                    break
+        i += 1
+    groups: dict[int, list[int]] = {}
+    for k, root in enumerate(owner):
+        groups.setdefault(root, []).append(k)
+    return [groups[r] for r in sorted(groups)]
+
+
+def _charge(mol: Chem.Mol | None) -> int:
+    if mol is None:
+        return 0
+    return sum(a.GetFormalCharge() for a in mol.GetAtoms())
+
+
+def _canonical(mol: Chem.Mol) -> str:
+    bare = Chem.Mol(mol)
+    for a in bare.GetAtoms():
+        a.SetAtomMapNum(0)
+    return Chem.MolToSmiles(bare)
+
+
+def _build_component(index: int, frags: list[Fragment], text_full: str) -> Component:
+    mol = frags[0].mol
+    for f in frags[1:]:
+        mol = Chem.CombineMols(mol, f.mol)
+    heavy = mol.GetNumHeavyAtoms()
+    text = ".".join(f.text for f in frags)
+    if heavy > MAX_ATOMS:
+        raise LimitError(
+            f"component {index + 1} '{text[:40]}{'…' if len(text) > 40 else ''}': {heavy} heavy atoms; "
+            f"the limit is {MAX_ATOMS}"
+        )
+    sanitization = "partial" if any(f.sanitization == "partial" for f in frags) else "full"
+    notes = tuple(f.note for f in frags if f.note)
+    with _rdlog.captured():
+        smiles = _canonical(mol)
+        try:
+            formula = rdMolDescriptors.CalcMolFormula(mol)
+        except (RuntimeError, ValueError):
+            formula = ""
+        try:
+            mw = float(Descriptors.MolWt(mol))
+        except (RuntimeError, ValueError):
+            mw = float("nan")
+        try:
+            inchikey = Chem.MolToInchiKey(mol) or ""
+        except (RuntimeError, ValueError):
+            inchikey = ""
+    names = [f.name for f in frags]
+    if len(frags) == 1:
+        name = names[0] or (name_for_inchikey(inchikey) if inchikey else None)
+    elif all(names):
+        name = " · ".join(n for n in names if n)
+    else:
+        name = name_for_inchikey(inchikey) if inchikey else None
+    sources = sorted({f.source for f in frags})
+    kind_hint = frags[0].kind_hint if len(frags) == 1 else None
+    if kind_hint is None and inchikey:
+        kind_hint = kind_for_inchikey(inchikey)
+    start = frags[0].start
+    end = frags[-1].start + len(frags[-1].text)
+    return Component(
+        index=index,
+        role=ROLES[frags[0].side],
+        text=text,
+        mol=mol,
+        smiles=smiles,
+        formula=formula,
+        mw=mw,
+        inchikey=inchikey,
+        name=name,
+        source=" + ".join(sources),
+        sanitization=sanitization,
+        notes=notes,
+        fragments=tuple(f.text for f in frags),
+        span=(start, end),
+        kind_hint=kind_hint,
+    )
+
+
+def parse_reaction(text: str, *, join: Sequence[str] = ()) -> Reaction:
+    """Read a reaction (or a plain list of molecules) into components with roles.
+
+    Raises :class:`~chemcheck.errors.ParseError` naming the component and position of the
+    first problem, and :class:`~chemcheck.errors.LimitError` beyond the size limits.
+    """
+    if not isinstance(text, str):
+        raise ParseError(f"a reaction must be text, not {type(text).__name__}")
+    if len(text) > MAX_TEXT:
+        raise LimitError(f"reaction text is {len(text)} characters; the limit is {MAX_TEXT}")
+    raw = text
+    cx_fields = None
+    m = _CX.search(text)
+    if m:
+        cx_fields = m.group(1)
+        text = text[: m.start()]
+    if not text.strip():
+        raise ParseError("the reaction is empty")
+    arrows = text.count(">")
+    if arrows == 0:
+        sides = [text, "", ""]
+        offsets = [0, len(text), len(text)]
+    elif arrows == 2:
+        a = text.index(">")
+        b = text.index(">", a + 1)
+        sides = [text[:a], text[a + 1 : b], text[b + 1 :]]
+        offsets = [0, a + 1, b + 1]
+    else:
+        raise ParseError(
+            f"a reaction has the form reactants>agents>products (two '>'); found {arrows}",
+            text=raw if len(raw) <= 60 else raw[:57] + "...",
+        )
+    located: list[tuple[str, int, int]] = []
+    for side, (s, off) in enumerate(zip(sides, offsets)):
+        for frag_text, frag_off in _split_fragments(s, side, off):
+            located.append((frag_text, frag_off, side))
+    if not located:
+        raise ParseError("the reaction has no molecules", text=raw)
+    if not any(side == 0 for _, _, side in located):
+        raise ParseError("the reaction has no reactants (nothing before the first '>')", text=raw)
+    located = _merge_dotted_names(located)
+    if len(located) > MAX_COMPONENTS * 4:
+        raise LimitError(f"the reaction has {len(located)} fragments; the limit is {MAX_COMPONENTS} components")
+    fragments = [
+        _read_fragment(t, off, side, number) for number, (t, off, side) in enumerate(located, start=1)
+    ]
+    groups = _group(fragments, _cx_groups(cx_fields), join)
+    if len(groups) > MAX_COMPONENTS:
+        raise LimitError(f"the reaction has {len(groups)} components; the limit is {MAX_COMPONENTS}")
+    components = [_build_component(i, [fragments[k] for k in g], raw) for i, g in enumerate(groups)]
+    mapped = any(a.GetAtomMapNum() for c in components for a in c.mol.GetAtoms())
+    return Reaction(text=raw, components=components, cx_fields=cx_fields, mapped=mapped)

@@ -1,0 +1,132 @@
+"""The rule registry.
+
+A rule is data (id, title, default severity, documentation) plus one pure check function that
+takes a :class:`Context` and yields findings. The documentation is the check function's
+docstring, in five sections headed ``What it flags``, ``Why it matters``, ``Example``,
+``Use instead`` and ``References``; ``docs/rules.md`` is generated from them.
+
+Add a rule: write a function in the module of its family, decorate it with ``@rule(...)``,
+and import the module in ``_load()`` below.
+"""
+
+from __future__ import annotations
+
+import inspect
+import re
+import textwrap
+from collections.abc import Callable, Iterable
+from dataclasses import dataclass
+from functools import cached_property
+
+from ..findings import Finding, Severity
+from ..perceive import Perception, perceive
+from ..reaction import Component, Reaction
+
+__all__ = ["Rule", "Context", "rule", "registry", "DOC_SECTIONS"]
+
+DOC_SECTIONS = ("What it flags", "Why it matters", "Example", "Use instead", "References")
+_ID = re.compile(r"^[a-z]+(-[a-z0-9]+)+$")
+
+
+class Context:
+    """What rules read: the reaction, each component's perception, and later the amounts."""
+
+    def __init__(self, reaction: Reaction, amounts: dict[str, str] | None = None) -> None:
+        self.reaction = reaction
+        self.amounts = dict(amounts or {})
+        self._perception: dict[int, Perception] = {}
+
+    def perception(self, component: Component) -> Perception:
+        p = self._perception.get(component.index)
+        if p is None:
+            p = perceive(component.mol, component.kind_hint)
+            self._perception[component.index] = p
+        return p
+
+    @cached_property
+    def balance(self):
+        from ..balance import balance
+
+        return balance(self.reaction)
+
+
+CheckFn = Callable[[Context], Iterable[Finding]]
+
+
+@dataclass(frozen=True)
+class Rule:
+    id: str
+    title: str
+    severity: Severity
+    check: CheckFn
+    family: str
+
+    @property
+    def docs(self) -> dict[str, str]:
+        return parse_doc_sections(inspect.getdoc(self.check) or "")
+
+    def finding(
+        self,
+        message: str,
+        *,
+        atoms: Iterable[tuple[int, int]] = (),
+        fix: str | None = None,
+        severity: Severity | None = None,
+        references: Iterable[str] = (),
+    ) -> Finding:
+        return Finding(
+            rule=self.id,
+            severity=severity or self.severity,
+            message=message,
+            atoms=tuple(dict.fromkeys((int(c), int(a)) for c, a in atoms)),
+            fix=fix,
+            references=tuple(references) or self.references,
+            title=self.title,
+        )
+
+    @property
+    def references(self) -> tuple[str, ...]:
+        text = self.docs.get("References", "")
+        return tuple(line.lstrip("-* ").strip() for line in text.splitlines() if line.strip())
+
+
+_REGISTRY: dict[str, Rule] = {}
+
+
+def rule(*, id: str, title: str, severity: Severity) -> Callable[[CheckFn], CheckFn]:
+    if not _ID.match(id):
+        raise ValueError(f"rule id must be kebab-case naming the flagged pattern: {id!r}")
+
+    def register(fn: CheckFn) -> CheckFn:
+        if id in _REGISTRY:
+            raise ValueError(f"rule {id!r} registered twice")
+        family = fn.__module__.rsplit(".", 1)[-1]
+        r = Rule(id=id, title=title, severity=severity, check=fn, family=family)
+        _REGISTRY[id] = r
+        fn.rule = r  # type: ignore[attr-defined]
+        return fn
+
+    return register
+
+
+def parse_doc_sections(doc: str) -> dict[str, str]:
+    sections: dict[str, list[str]] = {}
+    current: str | None = None
+    for line in doc.splitlines():
+        head = line.strip().rstrip(":")
+        if head in DOC_SECTIONS:
+            current = head
+            sections[current] = []
+        elif current is not None:
+            sections[current].append(line)
+    return {k: textwrap.dedent("\n".join(v)).strip() for k, v in sections.items()}
+
+
+def _load() -> None:
+    from . import balance  # noqa: F401
+
+
+def registry() -> dict[str, Rule]:
+    if not _REGISTRY:
+        _load()
+    return dict(_REGISTRY)

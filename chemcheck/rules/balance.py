@@ -1,0 +1,81 @@
+"""Rules on the drawn equation as a whole."""
+
+from __future__ import annotations
+
+from ..balance import Missing
+from . import Context, rule
+
+
+def _names(items: list[Missing]) -> str:
+    parts = [f"{m.count} {m.name}" if m.count > 1 else m.name for m in items]
+    return parts[0] if len(parts) == 1 else ", ".join(parts[:-1]) + " and " + parts[-1]
+
+
+def _verb(items: list[Missing]) -> str:
+    return "is" if len(items) == 1 and items[0].count == 1 else "are"
+
+
+@rule(id="unbalanced-equation", title="Equation does not balance as drawn", severity="info")
+def unbalanced_equation(ctx: Context):
+    """Compare the elements and charge of the reactants with those of the products.
+
+    What it flags
+        A drawn equation whose elements or charge differ between the two sides. When one or
+        two common small molecules close the gap (HCl from an acylation, water from a
+        condensation, CO2 and tert-butanol from a Boc protection), it names them; otherwise
+        it gives the element difference.
+
+    Why it matters
+        The by-product that is not drawn is often the one that matters: the HCl of an
+        acylation protonates the amine, the water of an imine condensation reverses it.
+        Balancing also gives the stoichiometric coefficients that the limiting reagent and the
+        atom economy are computed from.
+
+    Example
+        ``CCN.CC(=O)Cl>>CCNC(C)=O``: HCl is not drawn.
+
+    Use instead
+        Draw the by-product, or leave it out knowingly: this is an info note, not an error.
+        An unexplained difference usually means a wrong product or a missing reagent.
+
+    References
+        IUPAC Gold Book, "stoichiometric number" (common practice of balancing equations).
+    """
+    b = ctx.balance
+    if not b.checked or b.drawn_balanced:
+        return
+    r = unbalanced_equation.rule
+    products = ctx.reaction.products
+    reactants = ctx.reaction.reactants
+    if b.balanced:
+        left = [m for m in b.missing if m.side == "product"]
+        needed = [m for m in b.missing if m.side == "reactant"]
+        coeff = {i: k for i, k in b.coefficients.items() if k != 1}
+        parts, fixes = [], []
+        if left:
+            parts.append(f"{_names(left)} {_verb(left)} not drawn among the products")
+            fixes.append(f"add {_names(left)} to the products")
+        if needed:
+            parts.append(f"{_names(needed)} {_verb(needed)} needed on the reactant side")
+            fixes.append(f"add {_names(needed)} to the reactants")
+        if coeff:
+            comps = ctx.reaction.components
+            text = ", ".join(f"{k} × {comps[i].label}" for i, k in sorted(coeff.items()))
+            parts.append(f"it balances with the coefficients {text}")
+            fixes.append(f"use the coefficients {text}")
+        message = "; ".join(parts)
+        message = message[0].upper() + message[1:] + "."
+        fix = "To balance the equation, " + " and ".join(fixes) + "."
+        yield r.finding(message, fix=fix)
+        return
+    diff = ", ".join(f"{el} {'+' if n > 0 else ''}{n}" for el, n in b.residual.items())
+    message = (
+        f"The equation does not balance: reactants minus products is {diff or 'none'}"
+        + (f", charge {b.charge_difference:+d}" if b.charge_difference else "")
+        + "."
+    )
+    yield r.finding(
+        message,
+        fix="Check the product drawn and whether a reagent is missing from the reactants"
+        + (f" ({len(reactants)} drawn)." if reactants else "."),
+    )

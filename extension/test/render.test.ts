@@ -1,0 +1,107 @@
+import { test } from 'node:test';
+import assert from 'node:assert/strict';
+
+import { installDom } from './setup';
+
+installDom();
+
+// eslint-disable-next-line @typescript-eslint/no-var-requires
+import { findingKey, isReport, renderReport } from '../src/render';
+import type { Report } from '../src/payload';
+
+const HOSTILE = '<img src=x onerror="globalThis.__pwned=1"><script>globalThis.__pwned=2</script>';
+
+function report(overrides: Partial<Report> = {}): Report {
+  return {
+    schema: 'chemcheck.report',
+    version: '1',
+    chemcheck_version: '0.0.0',
+    input: { reaction: 'CCN.CC(=O)Cl>>CCNC(C)=O', amounts: {} },
+    components: [
+      {
+        index: 0, role: 'reactant', text: 'CCN', smiles: 'CCN', formula: 'C2H7N', mw: 45.08,
+        inchikey: '', name: null, source: 'smiles', kind: null, charge: 0, sanitization: 'full',
+        fragments: ['CCN'], nitrogens: [], groups: []
+      }
+    ],
+    findings: [
+      { rule: 'acid-scavenger-short', severity: 'error', title: 't', message: 'no base', atoms: [[0, 2]], fix: 'add base', references: [] },
+      { rule: 'unbalanced-equation', severity: 'info', title: 't', message: 'HCl is not drawn', atoms: [], fix: null, references: [] }
+    ],
+    counts: { error: 1, warning: 0, info: 1 },
+    ...overrides
+  };
+}
+
+test('findings are grouped by severity, errors first, with their messages as text', () => {
+  const node = renderReport(report());
+  const items = [...node.querySelectorAll('.cc-finding')];
+  assert.equal(items.length, 2);
+  assert.ok(items[0].classList.contains('cc-error'));
+  assert.ok(items[1].classList.contains('cc-info'));
+  assert.match(items[0].textContent ?? '', /no base/);
+  assert.match(items[0].textContent ?? '', /Atoms: CCN atom 3/);
+});
+
+test('markup in names, SMILES, notes and messages stays text', () => {
+  const r = report({
+    input: { reaction: HOSTILE, amounts: {} },
+    findings: [{ rule: 'x-y', severity: 'warning', title: HOSTILE, message: HOSTILE, atoms: [], fix: HOSTILE, references: [] }]
+  });
+  r.components[0].text = HOSTILE;
+  r.components[0].name = HOSTILE;
+  const node = renderReport(r, {
+    acknowledgements: [{ finding: findingKey(r.findings[0]), rule: 'x-y', who: HOSTILE, when: 'now', note: HOSTILE }]
+  });
+  document.body.appendChild(node);
+  assert.equal(node.querySelectorAll('script').length, 0);
+  assert.equal(node.querySelectorAll('img[onerror]').length, 0);
+  assert.ok((node.textContent ?? '').includes('<script>'));
+  assert.equal((globalThis as Record<string, unknown>).__pwned, undefined);
+});
+
+test('an acknowledged finding is shown as such and offers no button', () => {
+  const r = report();
+  const key = findingKey(r.findings[0]);
+  const node = renderReport(r, {
+    acknowledgements: [{ finding: key, rule: r.findings[0].rule, who: 'A. Reviewer', when: '2026-12-01', note: '3 equiv used' }],
+    onAcknowledge: () => undefined
+  });
+  const first = node.querySelector('.cc-finding') as HTMLElement;
+  assert.ok(first.classList.contains('cc-acknowledged'));
+  assert.match(first.textContent ?? '', /Acknowledged by A\. Reviewer/);
+  assert.equal(first.querySelector('button'), null);
+  const second = node.querySelectorAll('.cc-finding')[1];
+  assert.ok(second.querySelector('button'));
+});
+
+test('hovering a finding draws circles at its atoms on the overlay', () => {
+  const r = report({
+    drawing: {
+      scheme_svg: '<svg xmlns="http://www.w3.org/2000/svg"/>', width: 200, height: 100,
+      components: [{ component: 0, svg: '', x: 0, y: 0, width: 100, height: 80, atoms: [[10, 10], [20, 20], [30, 40]] }]
+    }
+  });
+  const node = renderReport(r);
+  const overlay = node.querySelector('.cc-scheme-overlay') as SVGElement;
+  const first = node.querySelector('.cc-finding') as HTMLElement;
+  first.dispatchEvent(new window.Event('mouseenter'));
+  const circles = overlay.querySelectorAll('circle');
+  assert.equal(circles.length, 1);
+  assert.equal(circles[0].getAttribute('cx'), '30');
+  first.dispatchEvent(new window.Event('mouseleave'));
+  assert.equal(overlay.querySelectorAll('circle').length, 0);
+});
+
+test('the finding key is stable and depends on rule, message and atoms', () => {
+  const f = report().findings[0];
+  assert.equal(findingKey(f), findingKey({ ...f }));
+  assert.notEqual(findingKey(f), findingKey({ ...f, atoms: [[0, 1]] }));
+  assert.notEqual(findingKey(f), findingKey({ ...f, message: 'other' }));
+});
+
+test('payloads of another format are recognised as such', () => {
+  assert.equal(isReport({ foo: 1 }), false);
+  assert.equal(isReport(null), false);
+  assert.equal(isReport(report()), true);
+});

@@ -1,0 +1,62 @@
+"""The command line: exit codes, one-line errors, JSON output."""
+
+import json
+import subprocess
+import sys
+
+import pytest
+
+
+def run(*args, timeout=120):
+    return subprocess.run(
+        [sys.executable, "-m", "chemcheck", *args], capture_output=True, text=True, timeout=timeout
+    )
+
+
+def test_check_json_contract():
+    proc = run("check", "--json", "CCN.CC(=O)Cl>Et3N>CCNC(C)=O")
+    assert proc.returncode == 0, proc.stderr
+    data = json.loads(proc.stdout)
+    assert [c["role"] for c in data["components"]] == ["reactant", "reactant", "agent", "product"]
+    assert data["findings"][0]["rule"] == "unbalanced-equation"
+
+
+def test_check_text():
+    proc = run("check", "CCN.CC(=O)Cl>>CCNC(C)=O")
+    assert proc.returncode == 0
+    assert "NOTE [unbalanced-equation] HCl is not drawn" in proc.stdout
+
+
+@pytest.mark.parametrize(
+    "reaction,expected",
+    [
+        ("CCN.NCc1ccccc>>C", "component 2 'NCc1ccccc': ring closure 1 not closed at position 4"),
+        (">>", "the reaction has no molecules"),
+        ("", "the reaction is empty"),
+        ("CCN.unobtainium>>C", "component 2 'unobtainium': neither valid SMILES nor a known reagent name"),
+    ],
+)
+def test_bad_input_exits_2_with_one_line(reaction, expected):
+    proc = run("check", reaction)
+    assert proc.returncode == 2
+    lines = proc.stderr.strip().splitlines()
+    assert len(lines) == 1, proc.stderr
+    assert expected in lines[0]
+    assert "Traceback" not in proc.stderr
+
+
+def test_bad_amount_option():
+    proc = run("check", "CCN", "--amount", "no-equals-sign")
+    assert proc.returncode == 2
+    assert "KEY=VALUE" in proc.stderr
+
+
+def test_fail_on():
+    assert run("check", "CCN.CC(=O)Cl>>CCNC(C)=O", "--fail-on", "warning").returncode == 0
+
+
+def test_console_script_entry_point_is_declared():
+    from importlib.metadata import entry_points
+
+    eps = {e.name: e.value for e in entry_points(group="console_scripts")}
+    assert eps.get("chemcheck") == "chemcheck.cli:main"

@@ -1,0 +1,70 @@
+"""The report payload: the contract names, the JSON Schema, the generated TypeScript types."""
+
+import json
+
+import jsonschema
+import pytest
+
+import chemcheck
+from chemcheck import _schema_ts
+from chemcheck.report import schema
+
+REACTIONS = [
+    "CCN.CC(=O)Cl>Et3N.DCM>CCNC(C)=O",
+    "Cl.NCc1ccccc1.CC(=O)OC(C)=O>pyridine>CC(=O)NCc1ccccc1",
+    "c1ccccc1.CC(=O)Cl>AlCl3>CC(=O)c1ccccc1",
+    "F[I](F)(F)(F)(F)F.CCO",
+    "C[N+](C)(C)CCCC.[OH-]>>C=CCC",
+]
+
+
+@pytest.mark.parametrize("reaction", REACTIONS)
+def test_payload_validates_against_the_schema(reaction):
+    payload = chemcheck.check(reaction).to_dict()
+    jsonschema.Draft202012Validator(schema()).validate(payload)
+    json.dumps(payload)  # plain JSON
+
+
+@pytest.mark.parametrize("reaction", REACTIONS)
+def test_bundle_payload_with_drawing_validates(reaction):
+    bundle = chemcheck.check(reaction)._repr_mimebundle_()
+    jsonschema.Draft202012Validator(schema()).validate(bundle[chemcheck.MIME_TYPE])
+    drawing = bundle[chemcheck.MIME_TYPE]["drawing"]
+    n_drawn = sum(1 for c in chemcheck.check(reaction).components if c.role != "agent")
+    assert len(drawing["components"]) == n_drawn
+
+
+def test_contract_names():
+    report = chemcheck.check("CCN.CC(=O)Cl>Et3N>CCNC(C)=O")
+    assert [c.role for c in report.components] == ["reactant", "reactant", "agent", "product"]
+    assert report.components[2].text == "Et3N"
+    f = report.findings[0]
+    for attr in ("rule", "severity", "message", "atoms", "fix"):
+        assert hasattr(f, attr)
+    d = report.to_dict()
+    assert set(d) >= {"components", "findings", "version"}
+    assert all("role" in c for c in d["components"])
+
+
+def test_findings_are_frozen():
+    f = chemcheck.check("CCN.CC(=O)Cl>>CCNC(C)=O").findings[0]
+    with pytest.raises(AttributeError):
+        f.message = "changed"
+
+
+def test_schema_rejects_a_broken_payload():
+    payload = chemcheck.check("CCN.CC(=O)Cl>>CCNC(C)=O").to_dict()
+    payload["findings"][0]["severity"] = "fatal"
+    with pytest.raises(jsonschema.ValidationError):
+        jsonschema.validate(payload, schema())
+
+
+def test_typescript_types_are_generated_from_the_schema():
+    committed = _schema_ts.target().read_text()
+    assert committed == _schema_ts.generate(), "run `python -m chemcheck._schema_ts` and commit"
+
+
+def test_agent_kind_is_perceived():
+    report = chemcheck.check("CCN.CC(=O)Cl>Et3N.DCM.AlCl3.NaBH4>CCNC(C)=O")
+    kinds = {c.text: c.kind for c in report.components if c.role == "agent"}
+    assert kinds == {"Et3N": "base", "DCM": "solvent", "AlCl3": "lewis_acid", "NaBH4": "reductant"}
