@@ -48,10 +48,49 @@ def check(reaction: str | Reaction, amounts: dict[str, str] | None = None) -> Re
     for r in registry().values():
         findings.extend(r.check(ctx) or ())
     findings.sort(key=lambda f: _SEVERITY_ORDER[f.severity])
-    return Report(
+    report = Report(
         reaction=rxn,
         findings=findings,
         amounts=dict(amounts or {}),
         perceptions={c.index: ctx.perception(c) for c in rxn.components},
         balance=ctx.balance,
     )
+    report.extra.update(_basicity_sections(ctx))
+    for stage in ctx.sections:
+        report.extra.update(stage)
+    return report
+
+
+def _basicity_sections(ctx: Context) -> dict:
+    """The basicity table of every component and the workup advice for the amines."""
+    from .workup import advice_for, separations
+
+    table = []
+    workup = []
+    amines = []
+    for comp in ctx.reaction.components:
+        sites = ctx.sites(comp)
+        for s in sites:
+            table.append(
+                {
+                    "component": comp.index,
+                    "atom": s.atom_index,
+                    "kind": s.kind,
+                    "pka": s.pka,
+                    "method": s.method,
+                    "source": s.source,
+                    "uncertainty": s.uncertainty,
+                    "protonation_order": s.protonation_order,
+                }
+            )
+        if comp.role == "agent" and comp.kind == "solvent":
+            continue
+        best = max(
+            (s for s in sites if s.pka is not None and s.kind not in ("amide_anion",) and 1.0 <= s.pka <= 14.0),
+            key=lambda s: s.pka,
+            default=None,
+        )
+        if best is not None and comp.role in ("reactant", "product"):
+            workup.append(advice_for(comp.index, comp.label, best.pka).to_dict())
+            amines.append((comp.label, best.pka))
+    return {"basicity": table, "workup": workup, "separations": separations(amines)}

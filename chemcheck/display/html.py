@@ -134,6 +134,7 @@ def html_sections(payload: dict) -> list[str]:
     if workup:
         out.append("<h4>Workup</h4><ul>")
         out.extend(f"<li>{escape(w['message'])}</li>" for w in workup)
+        out.extend(f"<li>{escape(t)}</li>" for t in payload.get("separations") or [])
         out.append("</ul>")
     preds = payload.get("predictions")
     if preds:

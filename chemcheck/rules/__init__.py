@@ -35,6 +35,8 @@ class Context:
         self.reaction = reaction
         self.amounts = dict(amounts or {})
         self._perception: dict[int, Perception] = {}
+        self._sites: dict[int, list] = {}
+        self.sections: list[dict] = []  # report sections added by stages (stoichiometry, ...)
 
     def perception(self, component: Component) -> Perception:
         p = self._perception.get(component.index)
@@ -42,6 +44,16 @@ class Context:
             p = perceive(component.mol, component.kind_hint)
             self._perception[component.index] = p
         return p
+
+    def sites(self, component: Component) -> list:
+        """The basicity sites of a component (pKa of each nitrogen's conjugate acid)."""
+        s = self._sites.get(component.index)
+        if s is None:
+            from ..basicity import basic_sites
+
+            s = basic_sites(component.mol) if component.sanitization == "full" else []
+            self._sites[component.index] = s
+        return s
 
     @cached_property
     def balance(self):

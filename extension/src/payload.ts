@@ -21,6 +21,8 @@ export interface Report {
   classes?: Array<ReactionClass>;
   scale?: Scale | null;
   drawing?: Drawing | null;
+  /** pairs of amines that a pH window separates in the workup */
+  separations?: Array<string>;
 }
 
 export interface Input {

@@ -233,6 +233,9 @@ export function renderTables(report: Report): HTMLElement[] {
     for (const w of workup) {
       ul.appendChild(el('li', undefined, w.message));
     }
+    for (const t of report.separations ?? []) {
+      ul.appendChild(el('li', undefined, t));
+    }
     s.appendChild(ul);
     out.push(s);
   }

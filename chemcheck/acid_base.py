@@ -1,0 +1,115 @@
+"""Proton bookkeeping: where the protons go between the acids and bases of a reaction.
+
+Model: every proton acceptor j (a basic site, or the conjugate base of an acid) has a pKa_j
+(of its conjugate acid) and an amount n_j. At equilibrium all of them see one common proton
+activity, written here as an effective pH: the protonated fraction of j is
+1 / (1 + 10**(pH - pKa_j)), and the sum of protonated amounts equals the protons present.
+The effective pH is found by bisection.
+
+This is the aqueous picture (pKa values on the water scale). In organic solvents ion pairing
+and the solvent's own scale shift every value; relative order is kept for similar charge
+types, so the result says which base ends up protonated and roughly how much, not exact
+concentrations. Differences of less than about 2 units should be read as "shared".
+"""
+
+from __future__ import annotations
+
+from dataclasses import dataclass
+
+__all__ = ["Acceptor", "Distribution", "distribute", "max_conversion", "free_fraction"]
+
+
+@dataclass(frozen=True)
+class Acceptor:
+    label: str
+    pka: float  # of the conjugate acid
+    mmol: float  # amount of sites
+
+
+@dataclass(frozen=True)
+class Distribution:
+    ph: float
+    protonated: dict[str, float]  # label -> mmol protonated
+
+    def fraction(self, label: str, total: float) -> float:
+        return self.protonated.get(label, 0.0) / total if total > 0 else 0.0
+
+
+def _protonated(acceptors: list[Acceptor], ph: float) -> float:
+    return sum(a.mmol / (1.0 + 10.0 ** (ph - a.pka)) for a in acceptors)
+
+
+def distribute(acceptors: list[Acceptor], protons_mmol: float) -> Distribution:
+    """Share ``protons_mmol`` among the acceptors at equilibrium."""
+    acceptors = [a for a in acceptors if a.mmol > 0]
+    capacity = sum(a.mmol for a in acceptors)
+    if protons_mmol <= 0 or not acceptors:
+        return Distribution(float("inf"), {a.label: 0.0 for a in acceptors})
+    if protons_mmol >= capacity:
+        # more protons than acceptors: everything protonated, the excess stays as free acid
+        return Distribution(float("-inf"), {a.label: a.mmol for a in acceptors})
+    lo, hi = -60.0, 80.0
+    for _ in range(200):
+        mid = (lo + hi) / 2
+        if _protonated(acceptors, mid) > protons_mmol:
+            lo = mid
+        else:
+            hi = mid
+        if hi - lo < 1e-9:
+            break
+    ph = (lo + hi) / 2
+    out: dict[str, float] = {}
+    for a in acceptors:
+        out[a.label] = out.get(a.label, 0.0) + a.mmol / (1.0 + 10.0 ** (ph - a.pka))
+    return Distribution(ph, out)
+
+
+def free_fraction(nucleophile: Acceptor, others: list[Acceptor], protons_mmol: float) -> float:
+    d = distribute([nucleophile, *others], protons_mmol)
+    return 1.0 - d.fraction(nucleophile.label, nucleophile.mmol)
+
+
+def max_conversion(
+    nucleophile: Acceptor,
+    electrophile_mmol: float,
+    others: list[Acceptor],
+    acid_per_turnover: float = 1.0,
+    released_pka: float | None = None,
+    protons_present: float = 0.0,
+    nucleophile_per_turnover: float = 1.0,
+    threshold: float = 0.01,
+) -> float:
+    """The largest conversion (0-1, of the electrophile) reachable before the nucleophile is
+    used up as its salt by the acid the reaction releases.
+
+    At conversion x the reaction has consumed x*E*nucleophile_per_turnover of the nucleophile
+    and released x*E*acid_per_turnover protons (plus ``protons_present`` brought in); the
+    released acid's own conjugate base (pKa ``released_pka``, e.g. acetate) competes for them.
+    The reaction stops when the free (unprotonated) nucleophile falls below ``threshold`` of
+    its starting amount.
+    """
+    n0 = nucleophile.mmol
+    e = electrophile_mmol
+
+    def free_at(x: float) -> float:
+        remaining = n0 - x * e * nucleophile_per_turnover
+        if remaining <= 0:
+            return 0.0
+        acc = [Acceptor(nucleophile.label, nucleophile.pka, remaining), *others]
+        if released_pka is not None:
+            acc.append(Acceptor("released acid's conjugate base", released_pka, x * e * acid_per_turnover))
+        d = distribute(acc, x * e * acid_per_turnover + protons_present)
+        return remaining - d.protonated.get(nucleophile.label, 0.0)
+
+    if free_at(1.0) > threshold * n0:
+        return 1.0
+    lo, hi = 0.0, 1.0
+    if free_at(0.0) <= threshold * n0:
+        return 0.0
+    for _ in range(60):
+        mid = (lo + hi) / 2
+        if free_at(mid) > threshold * n0:
+            lo = mid
+        else:
+            hi = mid
+    return lo

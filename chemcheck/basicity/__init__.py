@@ -1,0 +1,335 @@
+"""Basicity: the pKa of every nitrogen's conjugate acid (water, 25 °C).
+
+``basic_sites(smiles_or_mol)`` returns one :class:`Site` per nitrogen. The number comes, in
+order of preference, from
+
+1. the reference table of measured values (``reference.py``), when the molecule is in it;
+2. *anchoring by analogy*: the largest reference compound of the same site class that is a
+   substructure of the molecule (its basic N on the molecule's N) gives the value, corrected
+   by the class model's difference between the two (the "prediction from a closely related
+   compound" of Perrin, Dempsey & Serjeant 1981, ch. 2);
+3. the class model alone (``model.py``): Taft equations for aliphatic amines, Hammett
+   equations for anilines and pyridine-type rings, ring-class values for azoles, amidines,
+   guanidines, hydrazines and hydroxylamines.
+
+Non-basic nitrogens (amide, sulfonamide, carbamate, imide, urea, pyrrole-type, nitro,
+nitrile, N-oxide, quaternary ammonium, ...) get ``pka=None``. A protonated nitrogen (an amine
+salt) gets the pKa of its own N-H (that of the free base). With several basic sites, the first
+proton goes to the most basic one; the next site's value is recomputed with the first site
+protonated (the ammonium as a substituent through the same model), see ``Site.stepwise_pka``.
+"""
+
+from __future__ import annotations
+
+import math
+from dataclasses import dataclass, replace
+from functools import lru_cache
+
+from rdkit import Chem
+
+from .. import _rdlog
+from ..errors import ParseError
+from ..molecule import read_smiles
+from ..perceive import nitrogen_sites
+from . import model
+from .reference import REFERENCE
+
+__all__ = ["Site", "basic_sites", "first_protonation", "most_basic", "METHOD_UNCERTAINTY"]
+
+# Estimated uncertainty (pKa units) of each method, from the accuracy measured against the
+# IUPAC digitized dataset (docs/basicity.md); the reference values carry their own.
+METHOD_UNCERTAINTY = {
+    "aliphatic": 0.5, "aryl_amine": 0.4, "azine": 0.6, "azole": 0.9, "amidine": 1.0,
+    "hydrazine": 0.8, "hydroxylamine": 0.8, "imine": 1.5, "enamine": 2.0, "amide_anion": 3.0,
+}
+_ANCHOR_EXTRA = 0.1
+
+_FAMILY = {
+    "primary_amine": "aliphatic", "secondary_amine": "aliphatic", "tertiary_amine": "aliphatic",
+    "ammonia": "aliphatic", "aryl_amine": "aryl_amine", "pyridine_type": "azine",
+    "amidine": "amidine", "guanidine": "amidine", "hydrazine": "hydrazine",
+    "hydroxylamine": "hydroxylamine", "imine": "imine", "enamine": "enamine",
+    "amide_anion": "amide_anion",
+}
+
+
+@dataclass(frozen=True)
+class Site:
+    atom_index: int
+    kind: str
+    pka: float | None
+    method: str
+    source: str
+    uncertainty: float | None
+    protonation_order: int | None = None
+    stepwise_pka: float | None = None
+
+    @property
+    def basic(self) -> bool:
+        return self.pka is not None and self.pka >= 1.0
+
+
+def _family(mol: Chem.Mol, idx: int, kind: str) -> str | None:
+    fam = _FAMILY.get(kind)
+    if fam == "azine" and model._ring_of(mol, idx, 6) is None:
+        return "azole"
+    return fam
+
+
+def _model(mol: Chem.Mol, idx: int, fam: str) -> tuple[float, str]:
+    if fam == "aliphatic":
+        return model.aliphatic(mol, idx)
+    if fam == "aryl_amine":
+        return model.aniline(mol, idx)
+    if fam in ("azine", "azole"):
+        return model.azine(mol, idx)
+    if fam == "amidine":
+        return model.amidine(mol, idx)
+    if fam == "hydrazine":
+        return model.hydrazine(mol, idx)
+    if fam == "hydroxylamine":
+        return model.hydroxylamine(mol, idx)
+    if fam == "imine":
+        return model.imine(mol, idx)
+    if fam == "enamine":
+        return 8.0, "class value, enamine (N-protonation; C-protonation competes)"
+    if fam == "amide_anion":
+        return 36.0, "class value, metal amide (conjugate acid: the amine, ~36 in THF/DMSO)"
+    raise KeyError(fam)
+
+
+@dataclass(frozen=True)
+class _Ref:
+    name: str
+    mol: Chem.Mol
+    site: int
+    site2: int | None
+    pka1: float
+    pka2: float | None
+    source: str
+    uncertainty: float
+    family: str
+    inchikey: str
+    n_equiv: int
+    heavy: int
+
+
+def _equivalents(mol: Chem.Mol, idx: int) -> int:
+    ranks = list(Chem.CanonicalRankAtoms(mol, breakTies=False))
+    return sum(1 for r in ranks if r == ranks[idx])
+
+
+@lru_cache(maxsize=1)
+def _references() -> tuple[_Ref, ...]:
+    out = []
+    with _rdlog.captured():
+        for name, smi, pka1, pka2, source, unc in REFERENCE:
+            mol = Chem.MolFromSmiles(smi)
+            site = site2 = None
+            for a in mol.GetAtoms():
+                if a.GetAtomMapNum() == 1:
+                    site = a.GetIdx()
+                elif a.GetAtomMapNum() == 2:
+                    site2 = a.GetIdx()
+                a.SetAtomMapNum(0)
+            kinds = {s.atom_index: s.kind for s in nitrogen_sites(mol)}
+            fam = _family(mol, site, kinds[site])
+            out.append(
+                _Ref(name, mol, site, site2, pka1, pka2, source, unc, fam, Chem.MolToInchiKey(mol),
+                     _equivalents(mol, site), mol.GetNumHeavyAtoms())
+            )
+    return tuple(out)
+
+
+def _ring_bonds_kept(ref: Chem.Mol, mol: Chem.Mol, match: tuple[int, ...]) -> bool:
+    """Ring bonds stay ring bonds and chain bonds stay chain bonds (a chain reference such as
+    diethylamine must not anchor a ring amine such as an aziridine)."""
+    for b in ref.GetBonds():
+        q = mol.GetBondBetweenAtoms(match[b.GetBeginAtomIdx()], match[b.GetEndAtomIdx()])
+        if q is None or q.IsInRing() != b.IsInRing():
+            return False
+        if b.IsInRing() and _smallest_ring(ref, b) != _smallest_ring(mol, q):
+            return False
+    return True
+
+
+def _smallest_ring(mol: Chem.Mol, bond) -> int:
+    sizes = [len(r) for r in mol.GetRingInfo().BondRings() if bond.GetIdx() in r]
+    return min(sizes) if sizes else 0
+
+
+def _anchor(mol: Chem.Mol, idx: int, fam: str) -> tuple[_Ref, bool] | None:
+    """The best reference for this site: (ref, exact) where exact means the same compound."""
+    key = Chem.MolToInchiKey(mol) if mol.GetNumAtoms() < 200 else ""
+    best: _Ref | None = None
+    exact = False
+    for ref in _references():
+        if ref.family != fam or ref.heavy > mol.GetNumHeavyAtoms():
+            continue
+        for match in mol.GetSubstructMatches(ref.mol, uniquify=False, maxMatches=50):
+            if match[ref.site] != idx or not _ring_bonds_kept(ref.mol, mol, match):
+                continue
+            if ref.inchikey == key:
+                return ref, True
+            if best is None or ref.heavy > best.heavy:
+                best = ref
+            break
+    return (best, exact) if best is not None else None
+
+
+def _site_value(mol: Chem.Mol, idx: int, kind: str) -> tuple[float, str, str, float]:
+    """Microscopic pKa of one site with the rest of the molecule as drawn."""
+    fam = _family(mol, idx, kind)
+    value, label = _model(mol, idx, fam)
+    unc = METHOD_UNCERTAINTY[fam]
+    found = _anchor(mol, idx, fam)
+    if found is None:
+        return value, label, "class model (constants in chemcheck/basicity/constants.py)", unc
+    ref, exact = found
+    micro_ref = ref.pka1 - math.log10(ref.n_equiv)
+    if exact:
+        return micro_ref, "reference value", f"{ref.name}: {ref.source}", ref.uncertainty
+    ref_model, _ = _model(ref.mol, ref.site, fam)
+    shifted = micro_ref + (value - ref_model)
+    return (
+        shifted,
+        f"anchored on {ref.name} ({ref.pka1:.2f}) with {label}",
+        f"{ref.name}: {ref.source}; shift from the class model",
+        max(unc - 0.1, 0.2) + _ANCHOR_EXTRA,
+    )
+
+
+def _protonate(mol: Chem.Mol, idx: int) -> Chem.Mol:
+    rw = Chem.RWMol(mol)
+    a = rw.GetAtomWithIdx(idx)
+    a.SetFormalCharge(a.GetFormalCharge() + 1)
+    a.SetNumExplicitHs(a.GetTotalNumHs() + 1)
+    a.SetNoImplicit(True)
+    out = rw.GetMol()
+    with _rdlog.captured():
+        Chem.SanitizeMol(out, catchErrors=True)
+    return out
+
+
+def _deprotonate(mol: Chem.Mol, idx: int) -> Chem.Mol:
+    rw = Chem.RWMol(mol)
+    a = rw.GetAtomWithIdx(idx)
+    a.SetFormalCharge(a.GetFormalCharge() - 1)
+    a.SetNumExplicitHs(max(a.GetTotalNumHs() - 1, 0))
+    a.SetNoImplicit(True)
+    out = rw.GetMol()
+    with _rdlog.captured():
+        Chem.SanitizeMol(out, catchErrors=True)
+    return out
+
+
+def _to_mol(smiles_or_mol) -> Chem.Mol:
+    if isinstance(smiles_or_mol, Chem.Mol):
+        return smiles_or_mol
+    if not isinstance(smiles_or_mol, str):
+        raise ParseError(f"expected SMILES or an RDKit molecule, not {type(smiles_or_mol).__name__}")
+    return read_smiles(smiles_or_mol).mol
+
+
+_NOT_BASIC = "not basic in water (lone pair delocalised, or none)"
+
+
+def basic_sites(smiles_or_mol, *, max_sites: int = 8) -> list[Site]:
+    """One :class:`Site` per nitrogen of the molecule, with the pKa of its conjugate acid."""
+    mol = _to_mol(smiles_or_mol)
+    return list(_basic_sites_cached(Chem.MolToSmiles(mol), max_sites)) if mol.GetNumAtoms() < 400 else _compute(mol, max_sites)
+
+
+@lru_cache(maxsize=2048)
+def _basic_sites_cached(smiles: str, max_sites: int) -> tuple[Site, ...]:
+    with _rdlog.captured():
+        mol = Chem.MolFromSmiles(smiles)
+    if mol is None:  # a partially sanitized species: nothing to say about its nitrogens
+        return ()
+    return tuple(_compute(mol, max_sites))
+
+
+def _shared_amidine(mol: Chem.Mol, site) -> bool:
+    """The sp3 N of an amidine or guanidine shares its cation with the =N: report it once."""
+    atom = mol.GetAtomWithIdx(site.atom_index)
+    return site.kind in ("amidine", "guanidine") and not any(
+        b.GetBondType() == Chem.BondType.DOUBLE for b in atom.GetBonds()
+    )
+
+
+def _compute(mol: Chem.Mol, max_sites: int) -> list[Site]:
+    perceived = nitrogen_sites(mol)
+    sites: dict[int, Site] = {}
+    for s in perceived:
+        kind = s.kind
+        if kind == "ammonium":
+            free = _deprotonate(mol, s.atom_index)
+            free_kind = {x.atom_index: x.kind for x in nitrogen_sites(free)}.get(s.atom_index)
+            if free_kind in _FAMILY:
+                v, label, src, unc = _site_value(free, s.atom_index, free_kind)
+                sites[s.atom_index] = Site(s.atom_index, kind, round(v, 2), f"salt: N-H of the {free_kind.replace('_', ' ')}; {label}", src, unc)
+                continue
+        if kind not in _FAMILY or (s.basic is False and kind not in _FAMILY):
+            sites[s.atom_index] = Site(s.atom_index, kind, None, _NOT_BASIC, "class (perception)", None)
+            continue
+        if _shared_amidine(mol, s):
+            sites[s.atom_index] = Site(s.atom_index, kind, None, "protonation shared with the C=N nitrogen (amidinium)", "class (perception)", None)
+            continue
+        v, label, src, unc = _site_value(mol, s.atom_index, kind)
+        sites[s.atom_index] = Site(s.atom_index, kind, round(v, 2), label, src, unc)
+    # protonation order among the neutral basic sites, each next one with the earlier protonated
+    basic = sorted(
+        (s for s in sites.values() if s.pka is not None and s.kind != "ammonium" and s.kind != "amide_anion"),
+        key=lambda s: -s.pka,
+    )[:max_sites]
+    if basic:
+        first = basic[0]
+        sites[first.atom_index] = replace(first, protonation_order=1, stepwise_pka=first.pka)
+    if len(basic) > 1:
+        _stepwise(mol, sites, basic)
+    return [sites[k] for k in sorted(sites)]
+
+
+def _stepwise(mol: Chem.Mol, sites: dict[int, Site], basic: list[Site]) -> None:
+    """Order of protonation and the stepwise values, each step with the earlier sites protonated."""
+    remaining = {s.atom_index for s in basic}
+    first = basic[0]
+    remaining.discard(first.atom_index)
+    current = _protonate(mol, first.atom_index)
+    order = 2
+    while remaining and order <= 4:
+        best = None
+        for idx in remaining:
+            base = sites[idx]
+            kind = base.kind
+            fam = _family(mol, idx, kind)
+            now, _ = _model(current, idx, fam)
+            before, _ = _model(mol, idx, fam)
+            value = base.pka + (now - before)
+            if best is None or value > best[1]:
+                best = (idx, value)
+        idx, value = best
+        sites[idx] = replace(sites[idx], protonation_order=order, stepwise_pka=round(value, 2))
+        current = _protonate(current, idx)
+        remaining.discard(idx)
+        order += 1
+
+
+def most_basic(sites: list[Site]) -> Site | None:
+    cands = [s for s in sites if s.pka is not None and s.kind not in ("ammonium",)]
+    return max(cands, key=lambda s: s.pka) if cands else None
+
+
+def first_protonation(smiles_or_mol) -> tuple[Site | None, float | None]:
+    """The site that takes the first proton and the molecule's first (macroscopic) pKa.
+
+    The macroscopic value counts every site: pKa1 = log10(sum of 10**pKa_i) over the neutral
+    basic sites (two equivalent amines add log10 2 = 0.30).
+    """
+    sites = basic_sites(smiles_or_mol)
+    cands = [s for s in sites if s.pka is not None and s.kind not in ("ammonium", "amide_anion")]
+    if not cands:
+        return None, None
+    best = max(cands, key=lambda s: s.pka)
+    macro = math.log10(sum(10 ** s.pka for s in cands))
+    return best, round(macro, 2)

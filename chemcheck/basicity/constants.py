@@ -1,0 +1,122 @@
+"""Substituent constants and class equations for the pKa of conjugate acids of nitrogen bases.
+
+Sources (values transcribed from these compilations; where a value was recalled rather than
+read off the page it says so, and its uncertainty is widened accordingly):
+
+* [HLT] C. Hansch, A. Leo, R. W. Taft, "A survey of Hammett substituent constants and
+  resonance and field parameters", Chem. Rev. 1991, 91, 165-195 (sigma_m, sigma_p, sigma_p-).
+* [PDS] D. D. Perrin, B. Dempsey, E. P. Serjeant, *pKa Prediction for Organic Acids and
+  Bases*, Chapman & Hall, 1981: the Taft equations for amines (chapter 4), sigma* values
+  (table of Taft constants), the attenuation factor 0.4 per CH2, and the Hammett equations
+  for anilines (pKa = 4.60 - 2.89 sum sigma) and pyridines (pKa = 5.25 - 5.90 sum sigma).
+* [P65] D. D. Perrin, *Dissociation Constants of Organic Bases in Aqueous Solution*,
+  Butterworths, 1965, and Supplement, 1972: pKa of ortho-substituted anilines and 2-substituted
+  pyridines, from which the ortho increments below are differences to the parent (recalled).
+"""
+
+from __future__ import annotations
+
+# --- Hammett constants [HLT]: (sigma_m, sigma_p, sigma_p_minus) ---------------------------
+HAMMETT: dict[str, tuple[float, float, float]] = {
+    "H": (0.00, 0.00, 0.00),
+    "CH3": (-0.07, -0.17, -0.17),
+    "alkyl": (-0.07, -0.15, -0.15),
+    "tBu": (-0.10, -0.20, -0.13),
+    "CF3": (0.43, 0.54, 0.65),
+    "CCl3": (0.40, 0.46, 0.46),
+    "CH2X": (0.11, 0.12, 0.12),  # CH2Cl, CH2OH-type: weak acceptor
+    "CH2N": (-0.03, -0.11, -0.11),
+    "Ph": (0.06, -0.01, 0.02),
+    "vinyl": (0.06, -0.04, -0.04),
+    "ethynyl": (0.21, 0.23, 0.53),
+    "F": (0.34, 0.06, -0.03),
+    "Cl": (0.37, 0.23, 0.19),
+    "Br": (0.39, 0.23, 0.25),
+    "I": (0.35, 0.18, 0.27),
+    "OH": (0.12, -0.37, -0.37),
+    "O-": (-0.47, -0.81, -0.81),
+    "OMe": (0.12, -0.27, -0.26),
+    "OPh": (0.25, -0.03, -0.10),
+    "OAc": (0.39, 0.31, 0.31),
+    "OCF3": (0.38, 0.35, 0.27),
+    "NH2": (-0.16, -0.66, -0.15),
+    "NHR": (-0.21, -0.70, -0.70),
+    "NR2": (-0.16, -0.83, -0.12),
+    "NHAc": (0.21, 0.00, -0.46),
+    "NH3+": (0.86, 0.60, 0.56),
+    "NR3+": (0.88, 0.82, 0.77),
+    "NO2": (0.71, 0.78, 1.27),
+    "CN": (0.56, 0.66, 1.00),
+    "CHO": (0.35, 0.42, 1.03),
+    "COR": (0.38, 0.50, 0.84),
+    "COOR": (0.37, 0.45, 0.75),
+    "COOH": (0.37, 0.45, 0.77),
+    "COO-": (-0.10, 0.00, 0.31),
+    "CONH2": (0.28, 0.36, 0.61),
+    "SO2R": (0.60, 0.72, 1.13),
+    "SO2N": (0.53, 0.60, 0.94),
+    "SO3-": (0.30, 0.35, 0.35),
+    "SR": (0.15, 0.00, 0.06),
+    "SH": (0.25, 0.15, 0.73),
+    "SiR3": (-0.04, -0.07, 0.11),
+    "N=N": (0.32, 0.39, 0.45),
+    "B": (-0.01, 0.12, 0.12),  # boronic acid
+    "fused": (0.06, -0.04, -0.04),  # an aromatic ring fused on: treated as a vinyl-like substituent
+}
+
+# --- ortho increments: pKa(2-X parent) - pKa(parent), from [P65] (recalled) ----------------
+ORTHO_ANILINE: dict[str, float] = {
+    "CH3": -0.16, "alkyl": -0.25, "tBu": -0.8, "OMe": -0.08, "OH": 0.12, "NH2": -0.13,
+    "NHR": -0.1, "NR2": -0.5, "F": -1.40, "Cl": -1.96, "Br": -2.07, "I": -2.0, "NO2": -4.86,
+    "CN": -3.6, "COOR": -2.4, "COR": -2.3, "CHO": -2.6, "COOH": -2.5, "CF3": -3.4, "Ph": -0.78,
+    "SR": -1.15, "CONH2": -1.8, "NHAc": -0.9, "vinyl": -0.5, "fused": -0.68, "OPh": -1.2,
+    "SO2R": -4.5, "SO2N": -4.0, "CH2X": -0.6, "CH2N": -0.2, "ethynyl": -1.6, "OAc": -1.5,
+}
+ORTHO_PYRIDINE: dict[str, float] = {
+    "CH3": 0.72, "alkyl": 0.70, "tBu": 0.51, "NH2": 1.61, "NHR": 1.85, "NR2": 1.7, "OMe": -1.97,
+    "OPh": -2.2, "F": -5.69, "Cl": -4.53, "Br": -4.54, "I": -3.4, "CN": -5.5, "COOR": -3.0,
+    "COR": -2.6, "CHO": -3.4, "CF3": -5.8, "NO2": -7.8, "Ph": -0.77, "SR": -1.66,
+    "vinyl": -0.27, "CONH2": -3.2, "NHAc": -1.1, "CH2X": -0.4, "CH2N": -0.3, "OH": -5.0,
+    "fused": -0.35, "ethynyl": -2.5, "OAc": -3.0, "SO2R": -6.0, "SO2N": -6.0,
+}
+
+# --- reaction constants ----------------------------------------------------------------------
+ANILINE = {"pka0": 4.60, "rho": 2.89}  # [PDS]
+PYRIDINE = {"pka0": 5.25, "rho": 5.90}  # [PDS]
+# The Taft equations for amines [PDS]: pKa = a - rho* sum(sigma*) over the groups on N.
+TAFT_AMINE = {
+    "primary": (10.15, 3.14),
+    "secondary": (10.59, 3.23),
+    "tertiary": (9.61, 3.30),
+}
+ATTENUATION = 0.4  # per intervening carbon [PDS]
+ALKYL_SIGMA_STAR = -0.10  # the contribution of one alkyl carbon on the alpha carbon (sigma*(Et))
+
+# sigma* of CH2-Z for heteroatom groups Z [PDS Taft table]; additive on the alpha carbon
+# (sigma*(CH2Z) - sigma*(CH3), sigma*(CH3) = 0).
+SIGMA_STAR_Z: dict[str, float] = {
+    "F": 1.10, "Cl": 1.05, "Br": 1.00, "I": 0.85,
+    "OH": 0.555, "OR": 0.52, "OAr": 0.85, "OC(=O)": 0.66, "O-": -0.10,
+    "SR": 0.62, "SH": 0.62, "S(=O)": 1.20, "SO2": 1.32,
+    "NO2": 1.40, "amine": 0.40, "amide_n": 0.40, "aryl_n": 0.60, "ammonium": 2.00,
+    "quaternary": 1.90, "azide": 1.00, "heteroaryl_n": 0.90, "imine_n": 0.60, "sulfonamide_n": 0.80,
+    "C=O ketone": 0.60, "C=O ester": 0.71, "C=O amide": 0.50, "C=O acid": 0.80,
+    "carboxylate": 0.05, "C#N": 1.30, "C=C": 0.20, "C#C": 0.64, "aryl": 0.215,
+    "aza_in_aryl": 0.12, "C=N": 0.50, "Si": -0.05, "P": 0.60, "B": 0.0,
+}
+
+# --- aromatic nitrogen heterocycles: the parent of each ring class [P65] ------------------
+# (the pKa of the parent, and the reaction constant for substituents on ring carbons)
+AZOLE_RHO = 6.5  # estimated, 5-ring azoles with sigma_m of the substituent (uncertain)
+AZA_SIGMA = {"ortho": None, "meta": 0.65, "para": 0.78}  # an extra ring N as a substituent
+AZA_ORTHO_INCREMENT = -2.9  # pyridazine (2.33) against pyridine (5.25)
+
+# Ring C=O (lactam, pyridone, pyrimidinone positions) and a ring N bearing a substituent (its
+# lone pair in the pi system) in six-membered rings. No literature constants exist for these;
+# the values are our estimates from the chemistry (a ring C=O acts as a vinylogous acyl group,
+# a ring N-R as a ring NR2 donor) and carry a wide uncertainty.
+RING_OXO = {"ortho": -3.5, "meta": 0.5, "para": 1.0}
+RING_NR_SIGMA = {"meta": -0.16, "para": -0.5}
+# rho of the benzylammonium ions against ring substituents, in sigma* units of the CH2-aryl
+# group: rho(ArCH2NH3+) = 1.06 (PDS) divided by rho*(primary amines) = 3.14.
+BENZYL_RING_FACTOR = 1.06 / 3.14

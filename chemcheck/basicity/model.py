@@ -1,0 +1,619 @@
+"""Class models for the pKa of one nitrogen's conjugate acid (water, 25 °C).
+
+Each function takes a sanitized RDKit molecule and the index of a nitrogen and returns
+(pKa, method label). They follow published linear free-energy relationships (constants and
+sources in ``constants.py``); the reference table and the anchoring by analogy that sit on
+top of them are in ``__init__.py``.
+"""
+
+from __future__ import annotations
+
+import math
+
+from rdkit import Chem
+
+from . import constants as K
+
+_PI_ACCEPTORS = {"NO2", "CN", "CHO", "COR", "COOR", "COOH", "CONH2", "SO2R", "SO2N", "CF3", "ethynyl", "N=N", "SH"}
+
+
+# --------------------------------------------------------------------------- aliphatic (Taft)
+def _carbonyl_kind(mol: Chem.Mol, c: Chem.Atom) -> str | None:
+    """For an sp2 carbon with a C=O: ketone, ester, amide, acid or carboxylate."""
+    has_o = False
+    for b in c.GetBonds():
+        o = b.GetOtherAtom(c)
+        if o.GetAtomicNum() == 8 and b.GetBondType() == Chem.BondType.DOUBLE:
+            has_o = True
+    if not has_o:
+        return None
+    for b in c.GetBonds():
+        x = b.GetOtherAtom(c)
+        if b.GetBondType() != Chem.BondType.SINGLE:
+            continue
+        if x.GetAtomicNum() == 8:
+            if x.GetFormalCharge() < 0:
+                return "carboxylate"
+            if x.GetTotalNumHs() > 0:
+                return "C=O acid"
+            return "C=O ester"
+        if x.GetAtomicNum() == 7:
+            return "C=O amide"
+    return "C=O ketone"
+
+
+def _hetero_key(mol: Chem.Mol, y: Chem.Atom, parent: Chem.Atom) -> str | None:
+    """The sigma*(CH2Z) key of a heteroatom substituent Z = y on a carbon."""
+    z = y.GetAtomicNum()
+    if z in (9, 17, 35, 53):
+        return y.GetSymbol()
+    if z == 8:
+        if y.GetFormalCharge() < 0:
+            return "O-"
+        if y.GetTotalNumHs() > 0:
+            return "OH"
+        others = [n for n in y.GetNeighbors() if n.GetIdx() != parent.GetIdx()]
+        if any(n.GetIsAromatic() for n in others):
+            return "OAr"
+        if any(_carbonyl_kind(mol, n) for n in others if n.GetAtomicNum() == 6):
+            return "OC(=O)"
+        if any(n.GetAtomicNum() in (15, 16) for n in others):
+            return "OC(=O)"  # phosphate and sulfonate esters: like an acyloxy group
+        return "OR"
+    if z == 16:
+        n_oxo = sum(1 for n in y.GetNeighbors() if n.GetAtomicNum() == 8 and n.GetDegree() == 1)
+        if n_oxo >= 2:
+            return "SO2"
+        if n_oxo == 1:
+            return "S(=O)"
+        return "SH" if y.GetTotalNumHs() else "SR"
+    if z == 7:
+        if y.GetFormalCharge() > 0:
+            if any(n.GetAtomicNum() == 8 and n.GetFormalCharge() < 0 for n in y.GetNeighbors()):
+                return "NO2"
+            return "ammonium" if y.GetTotalNumHs() > 0 else "quaternary"
+        if y.GetIsAromatic():
+            return "heteroaryl_n"
+        others = [n for n in y.GetNeighbors() if n.GetIdx() != parent.GetIdx()]
+        for n in others:
+            if n.GetAtomicNum() == 6 and _carbonyl_kind(mol, n):
+                return "amide_n"
+            if n.GetAtomicNum() == 16:
+                return "sulfonamide_n"
+            if n.GetAtomicNum() == 7 and n.GetFormalCharge() != 0:
+                return "azide"
+            if n.GetIsAromatic():
+                return "aryl_n"
+        if any(b.GetBondType() == Chem.BondType.DOUBLE for b in y.GetBonds()):
+            return "imine_n"
+        return "amine"
+    if z == 14:
+        return "Si"
+    if z == 15:
+        return "P"
+    if z == 5:
+        return "B"
+    return None
+
+
+def group_sigma_star(mol: Chem.Mol, atom: Chem.Atom, parent: Chem.Atom, depth: int = 0, path=None) -> float:
+    """Taft sigma* of the group that starts at ``atom`` (bound to ``parent``)."""
+    path = (path or set()) | {parent.GetIdx(), atom.GetIdx()}
+    if atom.GetIsAromatic():
+        aza = sum(1 for n in atom.GetNeighbors() if n.GetAtomicNum() == 7 and n.GetIsAromatic())
+        return K.SIGMA_STAR_Z["aryl"] / K.ATTENUATION + 0.0 * aza  # sigma*(Ph) ~ 0.6
+    total = 0.0
+    for b in atom.GetBonds():
+        y = b.GetOtherAtom(atom)
+        if y.GetIdx() in path:
+            continue
+        total += _term(mol, y, atom, b, depth, path)
+    return total
+
+
+def _term(mol, y: Chem.Atom, a: Chem.Atom, bond, depth: int, path) -> float:
+    """Contribution of substituent ``y`` on the carbon ``a`` to sigma*(group at a)."""
+    z = y.GetAtomicNum()
+    if z == 1:
+        return 0.0
+    if z == 6:
+        if y.GetIsAromatic():
+            aza = sum(
+                1 for ring in mol.GetRingInfo().AtomRings() if y.GetIdx() in ring
+                for i in ring if mol.GetAtomWithIdx(i).GetAtomicNum() == 7 and mol.GetAtomWithIdx(i).GetIsAromatic()
+            )
+            return (
+                K.SIGMA_STAR_Z["aryl"]
+                + K.SIGMA_STAR_Z["aza_in_aryl"] * min(aza, 2)
+                + K.BENZYL_RING_FACTOR * _benzyl_ring_sigma(mol, y)
+            )
+        if bond.GetBondType() == Chem.BondType.TRIPLE:
+            return K.SIGMA_STAR_Z["C#N"] if any(n.GetAtomicNum() == 7 for n in y.GetNeighbors()) else K.SIGMA_STAR_Z["C#C"]
+        if bond.GetBondType() == Chem.BondType.DOUBLE:
+            return K.SIGMA_STAR_Z["C=C"]
+        kind = _carbonyl_kind(mol, y)
+        if kind:
+            return K.SIGMA_STAR_Z[kind]
+        if y.GetHybridization() == Chem.HybridizationType.SP:
+            return K.SIGMA_STAR_Z["C#N"] if any(n.GetAtomicNum() == 7 for n in y.GetNeighbors()) else K.SIGMA_STAR_Z["C#C"]
+        if any(b2.GetBondType() == Chem.BondType.DOUBLE for b2 in y.GetBonds()):
+            other = [b2.GetOtherAtom(y) for b2 in y.GetBonds() if b2.GetBondType() == Chem.BondType.DOUBLE][0]
+            return K.SIGMA_STAR_Z["C=N"] if other.GetAtomicNum() == 7 else K.SIGMA_STAR_Z["C=C"]
+        if depth >= 3:
+            return K.ALKYL_SIGMA_STAR
+        s = group_sigma_star(mol, y, a, depth + 1, path)
+        alkyl_weight = min(1.0, max(0.0, 1.0 - s / 0.25))
+        return K.ATTENUATION * s + K.ALKYL_SIGMA_STAR * alkyl_weight
+    key = _hetero_key(mol, y, a)
+    return K.SIGMA_STAR_Z.get(key, 0.0) if key else 0.0
+
+
+def _benzyl_ring_sigma(mol: Chem.Mol, ipso: Chem.Atom) -> float:
+    """Hammett sum of the substituents on the ring of a benzylic carbon (ortho taken as meta)."""
+    ring = _ring_of(mol, ipso.GetIdx(), 6)
+    if ring is None:
+        return 0.0
+    total = 0.0
+    for d, key in _ring_substituents(mol, ring, ipso.GetIdx()):
+        if key in ("aza", "fused") or key.startswith("ring_"):
+            continue
+        total += _sigma_for(key, 2 if d == 1 else d, False)
+    return total
+
+
+def aliphatic(mol: Chem.Mol, n_idx: int) -> tuple[float, str]:
+    n = mol.GetAtomWithIdx(n_idx)
+    heavy = [x for x in n.GetNeighbors() if x.GetAtomicNum() > 1]
+    if not heavy:
+        return 9.25, "ammonia"
+    cls = {2: "primary", 1: "secondary", 0: "tertiary"}.get(n.GetTotalNumHs(), "tertiary")
+    a, rho = K.TAFT_AMINE[cls]
+    sigma = sum(group_sigma_star(mol, x, n) for x in heavy)
+    return a - rho * sigma, f"Taft equation, {cls} amine (sum sigma* {sigma:+.2f})"
+
+
+# --------------------------------------------------------------------------- aromatic rings
+def classify_substituent(mol: Chem.Mol, ring_atom: Chem.Atom, x: Chem.Atom, ring: set[int]) -> str:
+    """A Hammett key for the substituent that starts at ``x`` on ``ring_atom``."""
+    z = x.GetAtomicNum()
+    if z in (9, 17, 35, 53):
+        return x.GetSymbol()
+    if z == 6:
+        if x.GetIsAromatic():
+            rings = mol.GetRingInfo()
+            if rings.NumAtomRings(ring_atom.GetIdx()) > 1 and rings.AreAtomsInSameRing(ring_atom.GetIdx(), x.GetIdx()):
+                return "fused"
+            return "Ph"
+        nbrs = [n for n in x.GetNeighbors() if n.GetIdx() != ring_atom.GetIdx()]
+        kinds = _carbonyl_kind(mol, x)
+        if kinds:
+            if kinds == "carboxylate":
+                return "COO-"
+            if kinds == "C=O acid":
+                return "COOH"
+            if kinds == "C=O ester":
+                return "COOR"
+            if kinds == "C=O amide":
+                return "CONH2"
+            return "CHO" if x.GetTotalNumHs() else "COR"
+        for b in x.GetBonds():
+            o = b.GetOtherAtom(x)
+            if o.GetIdx() == ring_atom.GetIdx():
+                continue
+            if b.GetBondType() == Chem.BondType.TRIPLE:
+                return "CN" if o.GetAtomicNum() == 7 else "ethynyl"
+            if b.GetBondType() == Chem.BondType.DOUBLE:
+                if o.GetAtomicNum() == 7:
+                    return "COR"
+                return "vinyl"
+        n_f = sum(1 for n in nbrs if n.GetAtomicNum() == 9)
+        n_cl = sum(1 for n in nbrs if n.GetAtomicNum() == 17)
+        if n_f >= 2:
+            return "CF3"
+        if n_cl >= 3:
+            return "CCl3"
+        if any(n.GetAtomicNum() == 7 for n in nbrs):
+            return "CH2N"
+        if any(n.GetAtomicNum() in (8, 9, 16, 17, 35, 53) for n in nbrs):
+            return "CH2X"
+        carbons = sum(1 for n in nbrs if n.GetAtomicNum() == 6)
+        if carbons >= 3:
+            return "tBu"
+        if carbons == 0:
+            return "CH3"
+        if rings_fused_alkyl(mol, ring_atom, x, ring):
+            return "alkyl"
+        return "alkyl"
+    if z == 7:
+        if x.GetFormalCharge() > 0:
+            if any(n.GetAtomicNum() == 8 for n in x.GetNeighbors()):
+                return "NO2"
+            return "NH3+" if x.GetTotalNumHs() else "NR3+"
+        if x.GetIsAromatic():
+            return "NHAc"
+        nbrs = [n for n in x.GetNeighbors() if n.GetIdx() != ring_atom.GetIdx()]
+        for n in nbrs:
+            if n.GetAtomicNum() == 6 and _carbonyl_kind(mol, n):
+                return "NHAc"
+            if n.GetAtomicNum() == 16:
+                return "NHAc"
+            if n.GetAtomicNum() == 7 and any(b.GetBondType() == Chem.BondType.DOUBLE for b in x.GetBonds()):
+                return "N=N"
+        if any(b.GetBondType() == Chem.BondType.DOUBLE for b in x.GetBonds()):
+            return "N=N"
+        if any(n.GetIsAromatic() for n in nbrs):
+            return "NHR"  # diarylamine: weaker donor
+        h = x.GetTotalNumHs()
+        return {2: "NH2", 1: "NHR"}.get(h, "NR2")
+    if z == 8:
+        if x.GetFormalCharge() < 0:
+            return "O-"
+        if x.GetTotalNumHs():
+            return "OH"
+        nbrs = [n for n in x.GetNeighbors() if n.GetIdx() != ring_atom.GetIdx()]
+        if any(n.GetIsAromatic() for n in nbrs):
+            return "OPh"
+        if any(n.GetAtomicNum() == 6 and _carbonyl_kind(mol, n) for n in nbrs):
+            return "OAc"
+        if any(n.GetAtomicNum() == 6 and sum(1 for m in n.GetNeighbors() if m.GetAtomicNum() == 9) >= 2 for n in nbrs):
+            return "OCF3"
+        return "OMe"
+    if z == 16:
+        n_oxo = sum(1 for n in x.GetNeighbors() if n.GetAtomicNum() == 8 and n.GetDegree() == 1)
+        if n_oxo >= 2:
+            if any(n.GetAtomicNum() == 7 for n in x.GetNeighbors()):
+                return "SO2N"
+            if any(n.GetAtomicNum() == 8 and (n.GetFormalCharge() < 0 or n.GetTotalNumHs()) for n in x.GetNeighbors()):
+                return "SO3-"
+            return "SO2R"
+        if n_oxo == 1:
+            return "SO2R"
+        return "SH" if x.GetTotalNumHs() else "SR"
+    if z == 14:
+        return "SiR3"
+    if z == 5:
+        return "B"
+    return "H"
+
+
+def rings_fused_alkyl(mol, ring_atom, x, ring) -> bool:
+    return False
+
+
+def _ring_of(mol: Chem.Mol, idx: int, size: int | None = None) -> list[int] | None:
+    best = None
+    for ring in mol.GetRingInfo().AtomRings():
+        if idx in ring and all(mol.GetAtomWithIdx(i).GetIsAromatic() for i in ring):
+            if size is not None and len(ring) != size:
+                continue
+            if best is None or len(ring) < len(best):
+                best = list(ring)
+    return best
+
+
+def _ordered_positions(ring: list[int], start: int) -> dict[int, int]:
+    """Distance around the ring from ``start`` for each ring atom."""
+    i = ring.index(start)
+    n = len(ring)
+    return {ring[(i + k) % n]: min(k, n - k) for k in range(n)}
+
+
+def _sigma_for(key: str, position: int, para_acceptor_minus: bool) -> float:
+    sm, sp, spm = K.HAMMETT.get(key, (0.0, 0.0, 0.0))
+    if position == 2:
+        return sm
+    if position == 3:
+        if para_acceptor_minus and key in _PI_ACCEPTORS:
+            return spm
+        return sp
+    return 0.0
+
+
+def _ring_substituents(mol: Chem.Mol, ring: list[int], centre: int):
+    """Yield (position, key) for every substituent and ring aza atom, position = ring distance."""
+    pos = _ordered_positions(ring, centre)
+    ring_set = set(ring)
+    for idx in ring:
+        if idx == centre:
+            continue
+        atom = mol.GetAtomWithIdx(idx)
+        d = pos[idx]
+        if atom.GetAtomicNum() == 7:
+            if atom.GetFormalCharge() > 0:
+                yield d, "ring_n+"  # a protonated or alkylated ring N: strongly withdrawing
+                continue
+            if atom.GetDegree() == 3 or atom.GetTotalNumHs() > 0:
+                yield d, "ring_nR"  # its lone pair is in the pi system: a donor, not an aza
+                continue
+            yield d, "aza"
+        elif atom.GetAtomicNum() in (8, 16):
+            yield d, "ring_" + atom.GetSymbol()
+        for b in atom.GetBonds():
+            x = b.GetOtherAtom(atom)
+            if x.GetIdx() in ring_set:
+                continue
+            if x.GetAtomicNum() in (8, 16) and b.GetBondType() == Chem.BondType.DOUBLE:
+                yield d, "oxo"
+                continue
+            yield d, classify_substituent(mol, atom, x, ring_set)
+
+
+def _oxo_or_nr(key: str, d: int) -> tuple[float, float]:
+    """(ortho increment, sigma) of a ring C=O, ring N-R or ring N+ at ring distance d."""
+    if key == "ring_n+":
+        # pyridinium as a substituent: an estimate, twice the sigma of a ring aza atom
+        return (2 * K.AZA_ORTHO_INCREMENT, 0.0) if d == 1 else (0.0, 2 * K.AZA_SIGMA["meta" if d == 2 else "para"])
+    if key == "oxo":
+        if d == 1:
+            return K.RING_OXO["ortho"], 0.0
+        return 0.0, K.RING_OXO["meta" if d == 2 else "para"]
+    if d == 1:
+        return 0.0, 0.0
+    return 0.0, K.RING_NR_SIGMA["meta" if d == 2 else "para"]
+
+
+def aniline(mol: Chem.Mol, n_idx: int) -> tuple[float, str]:
+    n = mol.GetAtomWithIdx(n_idx)
+    aryls = [x for x in n.GetNeighbors() if x.GetIsAromatic()]
+    ipso = aryls[0]
+    ring = _ring_of(mol, ipso.GetIdx(), 6) or _ring_of(mol, ipso.GetIdx())
+    pka = K.ANILINE["pka0"]
+    sigma = 0.0
+    ortho = 0.0
+    # N-substituents other than the ring: alkyl groups raise, a second aryl lowers sharply
+    for x in n.GetNeighbors():
+        if x.GetIdx() == ipso.GetIdx() or x.GetAtomicNum() == 1:
+            continue
+        if x.GetIsAromatic():
+            pka -= 3.8  # diphenylamine 0.78 against aniline 4.60 [P65]
+        else:
+            pka += 0.35 - 3.0 * group_sigma_star(mol, x, n)
+    if ring is None:
+        return pka, "Hammett equation, aniline"
+    ring_size = len(ring)
+    for d, key in _ring_substituents(mol, ring, ipso.GetIdx()):
+        if ring_size == 5:
+            d = {1: 1, 2: 2}.get(d, 2)
+        if key == "aza":
+            if d == 1:
+                ortho += K.AZA_ORTHO_INCREMENT
+            else:
+                sigma += K.AZA_SIGMA["meta" if d == 2 else "para"]
+            continue
+        if key in ("oxo", "ring_nR", "ring_n+"):
+            o, sg = _oxo_or_nr(key, d)
+            ortho += o
+            sigma += sg
+            continue
+        if key.startswith("ring_"):
+            sigma += 0.3
+            continue
+        if d == 1:
+            ortho += K.ORTHO_ANILINE.get(key, -0.5 if key != "H" else 0.0)
+        else:
+            sigma += _sigma_for(key, d, True)
+    return pka + ortho - K.ANILINE["rho"] * sigma, f"Hammett equation, aniline (sum sigma {sigma:+.2f})"
+
+
+# 5-ring azoles: the parent pKa by the ring's signature seen from the basic N (c carbon,
+# r pyrrole-type N, p pyridine-type N, o oxygen, s sulfur), positions 1-4 around the ring [P65].
+AZOLE_PARENTS: dict[str, tuple[float, str]] = {
+    "ccrc": (6.95, "imidazole"),
+    "cccr": (2.48, "pyrazole"),
+    "ccoc": (0.80, "oxazole"),
+    "ccsc": (2.53, "thiazole"),
+    "ccco": (-2.97, "isoxazole"),
+    "cccs": (-0.51, "isothiazole"),
+    "cprc": (2.19, "1,2,4-triazole"),
+    "ccrp": (1.17, "1,2,3-triazole"),
+    "cpcr": (3.2, "1,2,4-triazole (N2)"),
+    "pcrc": (2.2, "1,2,4-triazole"),
+    "crpc": (2.2, "1,2,4-triazole"),
+}
+_AZOLE_BENZO = -1.35  # benzimidazole 5.53 against imidazole 6.95 [P65]
+_AZOLE_N_SUBST = {"alkyl": 0.1, "aryl": -1.85, "acyl": -3.4, "sulfonyl": -4.0, "vinyl": -1.3}
+
+
+def _ring_signature(mol: Chem.Mol, ring: list[int], site: int) -> str:
+    i = ring.index(site)
+    n = len(ring)
+    seq = []
+    for k in range(1, n):
+        a = mol.GetAtomWithIdx(ring[(i + k) % n])
+        z = a.GetAtomicNum()
+        if z == 7:
+            seq.append("r" if (a.GetTotalNumHs() > 0 or a.GetDegree() == 3) else "p")
+        elif z == 8:
+            seq.append("o")
+        elif z == 16:
+            seq.append("s")
+        else:
+            seq.append("c")
+    fwd = "".join(seq)
+    return min(fwd, fwd[::-1])
+
+
+def azine(mol: Chem.Mol, n_idx: int) -> tuple[float, str]:
+    """Pyridine-type nitrogen in an aromatic ring: pyridines, azines, azoles."""
+    ring6 = _ring_of(mol, n_idx, 6)
+    if ring6 is not None:
+        pka = K.PYRIDINE["pka0"]
+        sigma = 0.0
+        ortho = 0.0
+        for d, key in _ring_substituents(mol, ring6, n_idx):
+            if key == "aza":
+                if d == 1:
+                    ortho += K.AZA_ORTHO_INCREMENT
+                else:
+                    sigma += K.AZA_SIGMA["meta" if d == 2 else "para"]
+                continue
+            if key in ("oxo", "ring_nR", "ring_n+"):
+                o, sg = _oxo_or_nr(key, d)
+                ortho += o
+                sigma += sg
+                continue
+            if key.startswith("ring_"):
+                sigma += 0.5
+                continue
+            if d == 1:
+                ortho += K.ORTHO_PYRIDINE.get(key, -1.0 if key != "H" else 0.0)
+            else:
+                sigma += _sigma_for(key, d, False)
+        return pka + ortho - K.PYRIDINE["rho"] * sigma, f"Hammett equation, pyridine-type N (sum sigma {sigma:+.2f})"
+    ring5 = _ring_of(mol, n_idx, 5)
+    if ring5 is None:
+        return 2.0, "class value, aromatic N"
+    sig = _ring_signature(mol, ring5, n_idx)
+    parent = AZOLE_PARENTS.get(sig)
+    if parent is None:
+        base, label = (-1.0, "azole with several heteroatoms")
+    else:
+        base, label = parent
+    pka = base
+    sigma = 0.0
+    ring_set = set(ring5)
+    for idx in ring5:
+        if idx == n_idx:
+            continue
+        atom = mol.GetAtomWithIdx(idx)
+        for x in atom.GetNeighbors():
+            if x.GetIdx() in ring_set:
+                continue
+            if atom.GetAtomicNum() == 7:
+                pka += _azole_n_substituent(mol, atom, x)
+                continue
+            key = classify_substituent(mol, atom, x, ring_set)
+            if key == "fused":
+                continue
+            sigma += K.HAMMETT.get(key, (0.0, 0.0, 0.0))[0]
+    # benzo (or other aromatic) fusion on the ring's carbons
+    fused_atoms = [i for i in ring5 if mol.GetRingInfo().NumAtomRings(i) > 1 and mol.GetAtomWithIdx(i).GetAtomicNum() == 6]
+    if len(fused_atoms) >= 2:
+        pka += _AZOLE_BENZO
+    return pka - K.AZOLE_RHO * sigma, f"ring class ({label}) with substituent terms"
+
+
+def _azole_n_substituent(mol, ring_n: Chem.Atom, x: Chem.Atom) -> float:
+    if x.GetIsAromatic():
+        if mol.GetRingInfo().AreAtomsInSameRing(ring_n.GetIdx(), x.GetIdx()):
+            return 0.0
+        return _AZOLE_N_SUBST["aryl"]
+    if x.GetAtomicNum() == 6 and _carbonyl_kind(mol, x):
+        return _AZOLE_N_SUBST["acyl"]
+    if x.GetAtomicNum() == 16:
+        return _AZOLE_N_SUBST["sulfonyl"]
+    if x.GetAtomicNum() == 6 and any(b.GetBondType() == Chem.BondType.DOUBLE for b in x.GetBonds()):
+        return _AZOLE_N_SUBST["vinyl"]
+    if x.GetAtomicNum() == 6:
+        return _AZOLE_N_SUBST["alkyl"]
+    return 0.0
+
+
+# --------------------------------------------------------------------------- other classes
+def amidine(mol: Chem.Mol, n_idx: int) -> tuple[float, str]:
+    n = mol.GetAtomWithIdx(n_idx)
+    carbon = None
+    for b in n.GetBonds():
+        o = b.GetOtherAtom(n)
+        if o.GetAtomicNum() == 6 and sum(1 for x in o.GetNeighbors() if x.GetAtomicNum() == 7) >= 2:
+            carbon = o
+            break
+    if carbon is None:
+        return 12.0, "class value, amidine"
+    nitrogens = [x for x in carbon.GetNeighbors() if x.GetAtomicNum() == 7]
+    guanidine = len(nitrogens) >= 3
+    pka = 13.6 if guanidine else 12.4
+    for x in carbon.GetNeighbors():
+        if x.GetAtomicNum() == 7:
+            continue
+        pka -= 1.4 * group_sigma_star(mol, x, carbon)  # benzamidine 11.6 against acetamidine [P65]
+    for m in nitrogens:
+        for x in m.GetNeighbors():
+            if x.GetIdx() == carbon.GetIdx() or x.GetAtomicNum() == 1:
+                continue
+            if x.GetIsAromatic():
+                pka -= 2.8 if guanidine else 2.5  # phenylguanidine 10.8 [P65]
+            elif x.GetAtomicNum() == 6 and _carbonyl_kind(mol, x):
+                pka -= 5.0
+            elif x.GetAtomicNum() == 6:
+                pka += 0.05 - 1.0 * group_sigma_star(mol, x, m)
+            elif x.GetAtomicNum() in (7, 8):
+                pka -= 4.0
+    return pka, "guanidine class value with substituent terms" if guanidine else "amidine class value with substituent terms"
+
+
+def hydrazine(mol: Chem.Mol, n_idx: int) -> tuple[float, str]:
+    n = mol.GetAtomWithIdx(n_idx)
+    pka = 8.1
+    for x in n.GetNeighbors():
+        if x.GetAtomicNum() == 7:
+            for y in x.GetNeighbors():
+                if y.GetIdx() == n_idx or y.GetAtomicNum() == 1:
+                    continue
+                if y.GetIsAromatic():
+                    pka -= 2.9
+                elif y.GetAtomicNum() == 6 and _carbonyl_kind(mol, y):
+                    pka -= 4.9  # acetohydrazide 3.24 [P65]
+                elif y.GetAtomicNum() == 16:
+                    pka -= 5.5
+                else:
+                    pka -= 0.45
+            if any(b.GetBondType() == Chem.BondType.DOUBLE for b in x.GetBonds()):
+                pka -= 4.0
+            continue
+        if x.GetAtomicNum() == 1:
+            continue
+        if x.GetIsAromatic():
+            pka -= 2.9  # phenylhydrazine 5.21 [P65]
+        elif x.GetAtomicNum() == 6 and _carbonyl_kind(mol, x):
+            pka -= 8.0
+        else:
+            pka -= 0.25
+    if any(b.GetBondType() == Chem.BondType.DOUBLE for b in n.GetBonds()):
+        pka = min(pka, 3.0)
+    return pka, "hydrazine class value with substituent terms"
+
+
+def hydroxylamine(mol: Chem.Mol, n_idx: int) -> tuple[float, str]:
+    n = mol.GetAtomWithIdx(n_idx)
+    if any(b.GetBondType() == Chem.BondType.DOUBLE for b in n.GetBonds()):
+        return 1.0, "class value, oxime"
+    pka = 5.96
+    for x in n.GetNeighbors():
+        if x.GetAtomicNum() == 8:
+            if any(y.GetAtomicNum() == 6 for y in x.GetNeighbors()):
+                pka -= 1.36  # O-methylhydroxylamine 4.60 [P65]
+        elif x.GetIsAromatic():
+            pka -= 3.9
+        elif x.GetAtomicNum() == 6 and _carbonyl_kind(mol, x):
+            pka -= 6.0
+    return pka, "hydroxylamine class value with substituent terms"
+
+
+def imine(mol: Chem.Mol, n_idx: int) -> tuple[float, str]:
+    n = mol.GetAtomWithIdx(n_idx)
+    carbon = [b.GetOtherAtom(n) for b in n.GetBonds() if b.GetBondType() == Chem.BondType.DOUBLE]
+    if carbon and carbon[0].GetIsAromatic() and any(
+        x.GetAtomicNum() == 7 and x.GetIsAromatic() for x in carbon[0].GetNeighbors()
+    ):
+        # =N on a ring carbon next to a ring N-R: an amidine held in a ring (2-iminopyridine
+        # type, protonation gives an aminopyridinium); ring substituents as for pyridines
+        c = carbon[0]
+        ring = _ring_of(mol, c.GetIdx(), 6) or _ring_of(mol, c.GetIdx())
+        sigma = 0.0
+        if ring:
+            for d, key in _ring_substituents(mol, ring, c.GetIdx()):
+                if key in ("aza", "ring_nR", "oxo") or key.startswith("ring_"):
+                    sigma += 0.65 if key == "aza" else 0.0
+                    continue
+                sigma += _sigma_for(key, 2 if d == 1 else d, False)
+        return 13.0 - 4.5 * sigma, "class value, cyclic amidine (imine on an N-heterocycle)"
+    if any(x.GetIsAromatic() for x in n.GetNeighbors()):
+        return 2.8, "class value, N-aryl imine"
+    carbon = [b.GetOtherAtom(n) for b in n.GetBonds() if b.GetBondType() == Chem.BondType.DOUBLE][0]
+    conj = any(x.GetIsAromatic() for x in carbon.GetNeighbors())
+    return (6.9 if conj else 9.0), "class value, imine"
+
+
+def statistical(n_equivalent: int) -> float:
+    return math.log10(max(n_equivalent, 1))

@@ -1,0 +1,195 @@
+"""Basicity: pKa of nitrogen conjugate acids against outside references.
+
+References:
+* the IUPAC Digitized pKa Dataset (Zheng & Lafontant-Joseph, doi:10.5281/zenodo.7236452,
+  digitized from Perrin 1965/1972; CC BY-NC, read from ../shared only, never shipped);
+* values from the CRC Handbook table "Dissociation constants of organic bases in aqueous
+  solution" and Perrin's compilation, written below from memory and marked so.
+"""
+
+import csv
+import statistics
+
+import pytest
+from rdkit import Chem
+
+from chemcheck.basicity import basic_sites, first_protonation
+from chemcheck.basicity.reference import REFERENCE
+
+# (name, SMILES, pKa, tolerance). From memory (CRC Handbook / Perrin compilation, 25 °C).
+# Compounds also in chemcheck's reference table are checked tightly; the others exercise the
+# class models and the anchoring.
+COMMON_BASES = [
+    ("triethylamine", "CCN(CC)CC", 10.75, 0.15),
+    ("pyridine", "c1ccncc1", 5.23, 0.15),
+    ("DMAP", "CN(C)c1ccncc1", 9.6, 0.2),
+    ("2,6-lutidine", "Cc1cccc(C)n1", 6.7, 0.15),
+    ("N-methylmorpholine", "CN1CCOCC1", 7.4, 0.15),
+    ("morpholine", "C1COCCN1", 8.4, 0.2),
+    ("piperidine", "C1CCNCC1", 11.1, 0.15),
+    ("pyrrolidine", "C1CCNC1", 11.3, 0.15),
+    ("imidazole", "c1c[nH]cn1", 6.95, 0.15),
+    ("N-methylimidazole", "Cn1ccnc1", 7.0, 0.2),
+    ("aniline", "Nc1ccccc1", 4.6, 0.1),
+    ("N,N-dimethylaniline", "CN(C)c1ccccc1", 5.1, 0.15),
+    ("benzylamine", "NCc1ccccc1", 9.3, 0.15),
+    ("ammonia", "N", 9.25, 0.1),
+    ("methylamine", "CN", 10.6, 0.15),
+    ("dimethylamine", "CNC", 10.7, 0.15),
+    ("trimethylamine", "CN(C)C", 9.8, 0.15),
+    ("diethylamine", "CCNCC", 11.0, 0.15),
+    ("diisopropylamine", "CC(C)NC(C)C", 11.05, 0.2),
+    ("tert-butylamine", "CC(C)(C)N", 10.7, 0.15),
+    ("ethanolamine", "NCCO", 9.5, 0.15),
+    ("triethanolamine", "OCCN(CCO)CCO", 7.8, 0.15),
+    ("TRIS", "NC(CO)(CO)CO", 8.1, 0.15),
+    ("quinuclidine", "C1CN2CCC1CC2", 11.0, 0.2),
+    ("DABCO (first)", "C1CN2CCN1CC2", 8.8, 0.2),
+    ("quinoline", "c1ccc2ncccc2c1", 4.9, 0.15),
+    ("isoquinoline", "c1ccc2cnccc2c1", 5.4, 0.15),
+    ("p-toluidine", "Cc1ccc(N)cc1", 5.1, 0.15),
+    ("p-anisidine", "COc1ccc(N)cc1", 5.3, 0.15),
+    ("p-chloroaniline", "Nc1ccc(Cl)cc1", 4.0, 0.15),
+    ("p-nitroaniline", "Nc1ccc(cc1)[N+](=O)[O-]", 1.0, 0.2),
+    ("guanidine", "NC(N)=N", 13.6, 0.3),
+    ("hydrazine", "NN", 8.1, 0.2),
+    ("hydroxylamine", "NO", 6.0, 0.15),
+    # modelled or anchored (not in the reference table): wider tolerance
+    ("3,4-dimethylaniline", "Cc1ccc(N)cc1C", 5.2, 0.4),
+    ("4-ethylaniline", "CCc1ccc(N)cc1", 5.0, 0.4),
+    ("3-bromoaniline", "Nc1cccc(Br)c1", 3.5, 0.4),
+    ("4-iodoaniline", "Nc1ccc(I)cc1", 3.8, 0.4),
+    ("3-nitroaniline N-methyl", "CNc1cccc(c1)[N+](=O)[O-]", 2.5, 0.6),
+    ("3,5-lutidine", "Cc1cncc(C)c1", 6.15, 0.4),
+    ("4-ethylpyridine", "CCc1ccncc1", 6.0, 0.4),
+    ("3-methoxypyridine", "COc1cccnc1", 4.9, 0.5),
+    ("4-tert-butylpyridine", "CC(C)(C)c1ccncc1", 6.0, 0.4),
+    ("N-ethylmorpholine", "CCN1CCOCC1", 7.7, 0.4),
+    ("N,N-dimethylbenzylamine", "CN(C)Cc1ccccc1", 8.9, 0.5),
+    ("N-methylbenzylamine", "CNCc1ccccc1", 9.6, 0.4),
+    ("isobutylamine", "CC(C)CN", 10.4, 0.4),
+    ("2-methoxyethylamine", "COCCN", 9.4, 0.5),
+    ("N-methylpiperidine", "CN1CCCCC1", 10.1, 0.2),
+    ("1-methylpyrrolidine", "CN1CCCC1", 10.3, 0.3),
+]
+
+
+@pytest.mark.parametrize("name,smiles,pka,tol", COMMON_BASES, ids=[b[0] for b in COMMON_BASES])
+def test_common_bases(name, smiles, pka, tol):
+    site, macro = first_protonation(smiles)
+    assert site is not None
+    assert macro == pytest.approx(pka, abs=tol)
+
+
+def _dataset(path):
+    with path.open() as fh:
+        return {Chem.MolToInchiKey(Chem.MolFromSmiles(r["smiles"])): r for r in csv.DictReader(fh)}
+
+
+def test_reference_table_agrees_with_the_iupac_digitization(pka_dataset_dir):
+    """Our transcribed values against the independent digitization of the same compilation."""
+    data = _dataset(pka_dataset_dir / "amine_pka_dev.csv")
+    data.update(_dataset(pka_dataset_dir / "amine_pka_multisite_dev.csv"))
+    diffs = []
+    for name, smi, pka1, _pka2, _src, unc in REFERENCE:
+        mol = Chem.MolFromSmiles(smi)
+        for a in mol.GetAtoms():
+            a.SetAtomMapNum(0)
+        row = data.get(Chem.MolToInchiKey(mol))
+        if row is None:
+            continue
+        diffs.append((abs(pka1 - float(row["pka"])), name, pka1, float(row["pka"]), unc))
+    assert len(diffs) >= 30, "the table and the dataset should share many everyday bases"
+    mae = statistics.fmean(d[0] for d in diffs)
+    assert mae <= 0.15, sorted(diffs, reverse=True)[:5]
+    # no single value off by more than its stated uncertainty plus 0.4
+    bad = [d for d in diffs if d[0] > d[4] + 0.4]
+    assert bad == []
+
+
+def _accuracy(path, cls=None):
+    errs = []
+    with path.open() as fh:
+        for r in csv.DictReader(fh):
+            if cls and r["site_class"] not in cls:
+                continue
+            _, macro = first_protonation(r["smiles"])
+            errs.append(abs((macro if macro is not None else 0.0) - float(r["pka"])))
+    return statistics.fmean(errs), len(errs)
+
+
+# Regression guards at the accuracy measured when the methods landed (docs/basicity.md);
+# the goals of the basicity issue (overall 0.5, anilines and pyridines 0.3) are not yet met.
+@pytest.mark.parametrize(
+    "classes,limit",
+    [
+        (None, 0.90),
+        (("aniline_primary",), 0.38),
+        (("aliphatic_primary", "aliphatic_secondary", "aliphatic_tertiary"), 0.62),
+        (("pyridine",), 0.80),
+        (("imidazole",), 0.80),
+        (("amidine_guanidine",), 1.05),
+    ],
+)
+def test_accuracy_on_the_iupac_dataset(pka_dataset_dir, classes, limit):
+    mae, n = _accuracy(pka_dataset_dir / "amine_pka_dev.csv", classes)
+    assert n > 20
+    assert mae <= limit
+
+
+def test_multisite_accuracy(pka_dataset_dir):
+    mae, n = _accuracy(pka_dataset_dir / "amine_pka_multisite_dev.csv")
+    assert n > 200 and mae <= 0.9
+
+
+@pytest.mark.parametrize(
+    "smiles",
+    [
+        "CC(=O)NC", "CS(=O)(=O)NC", "CC(C)(C)OC(=O)NC", "O=C1CCC(=O)N1", "NC(N)=O", "c1cc[nH]c1",
+        "c1ccc2[nH]ccc2c1", "O=[N+]([O-])c1ccccc1", "CC#N", "[O-][n+]1ccccc1", "C[N+](C)(C)C",
+        "CN(C)C=O", "O=C1CCCN1",
+    ],
+)
+def test_non_basic_nitrogens_are_never_basic(smiles):
+    for s in basic_sites(smiles):
+        assert s.pka is None or s.pka < 1.0, (smiles, s)
+
+
+@pytest.mark.parametrize(
+    "smiles,site_smarts",
+    [
+        ("C1CNCCN1", "[NX3;H1]"),  # piperazine: either secondary N
+        ("CN(C)c1ccncc1", "n"),  # DMAP: the ring N (the amidine-like resonance)
+        ("Nc1ccccn1", "n"),  # 2-aminopyridine: the ring N
+        ("c1ccc2[nH]cnc2c1", "[nX2]"),  # benzimidazole: the pyridine-type N
+        ("CN1CCN(C)CC1", "[NX3]"),
+        ("NCCc1c[nH]cn1", "[NH2]"),  # histamine: the side-chain amine first
+        ("CN1CCC[C@H]1c1cccnc1", "[NX3;R;!a]"),  # nicotine: the pyrrolidine N
+    ],
+)
+def test_first_proton_goes_to_the_right_atom(smiles, site_smarts):
+    mol = Chem.MolFromSmiles(smiles)
+    allowed = {m[0] for m in mol.GetSubstructMatches(Chem.MolFromSmarts(site_smarts))}
+    site, _ = first_protonation(smiles)
+    assert site.atom_index in allowed
+
+
+def test_second_protonation_is_lowered():
+    # piperazine 9.73 / 5.35 (CRC, from memory): the second proton goes on much less easily
+    sites = basic_sites("C1CNCCN1")
+    second = [s for s in sites if s.protonation_order == 2][0]
+    assert second.stepwise_pka == pytest.approx(5.35 + 0.30, abs=0.6)  # micro = macro + log 2
+    en = [s for s in basic_sites("NCCN") if s.protonation_order == 2][0]
+    assert en.stepwise_pka < 8.0  # ethylenediamine pKa2 6.85 (CRC, from memory)
+
+
+def test_salts_report_the_pka_of_their_n_h():
+    [site] = basic_sites("[NH3+]Cc1ccccc1")
+    assert site.kind == "ammonium" and site.pka == pytest.approx(9.3, abs=0.2)
+
+
+def test_every_site_names_its_method_and_source():
+    for s in basic_sites("CCN(CC)CCNc1ccc(cc1)C(=O)N"):
+        assert s.method and s.source
+        if s.pka is not None:
+            assert s.uncertainty is not None and s.uncertainty > 0
