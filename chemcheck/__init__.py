@@ -7,15 +7,20 @@
 """
 
 from ._version import __version__
+from .basicity import Site, basic_sites
 from .engine import check
 from .errors import AmountError, ChemcheckError, LimitError, ParseError
 from .findings import Finding
 from .reaction import Component, Reaction, parse_reaction
 from .report import MIME_TYPE, Report
+from .scale import scale
 
 __all__ = [
     "__version__",
     "check",
+    "scale",
+    "basic_sites",
+    "Site",
     "parse_reaction",
     "Report",
     "Finding",

@@ -43,3 +43,50 @@ def _run_pka(args) -> int:
         if site is not None:
             print(f"{comp.text}: first proton on atom {site.atom_index + 1} ({site.kind}); pKa1 {macro:.2f}")
     return 0
+
+
+def _amount_args(p) -> None:
+    p.add_argument("reaction")
+    p.add_argument("--amount", "-a", action="append", default=[], metavar="KEY=VALUE",
+                   help="amount of a component as written, e.g. 'CCN=1.2 mmol' (repeat for each)")
+
+
+@command
+def _scale(sub) -> None:
+    p = sub.add_parser("scale", help="scale a reaction: amounts, vessel fill and a thermal screen")
+    _amount_args(p)
+    g = p.add_mutually_exclusive_group(required=True)
+    g.add_argument("--factor", type=float, help="multiply every amount by this factor")
+    g.add_argument("--target-mmol", type=float, help="mmol of the limiting reagent wanted")
+    g.add_argument("--target-product-g", type=float, help="theoretical product mass wanted (g)")
+    p.add_argument("--vessel-ml", type=float, help="volume of the vessel (mL), to check the fill")
+    p.add_argument("--start-c", type=float, default=20.0, help="starting temperature (°C), default 20")
+    p.add_argument("--dh-kj-mol", type=float, help="reaction enthalpy per mol of limiting reagent (kJ/mol), if known")
+    p.add_argument("--json", action="store_true")
+    p.set_defaults(func=_run_scale)
+
+
+def _run_scale(args) -> int:
+    from . import check
+    from .cli import _amounts
+    from .scale import scale
+
+    amounts = _amounts(args.amount)
+    if not amounts:
+        from .errors import ChemcheckError
+
+        raise ChemcheckError("scale needs the amounts: --amount 'KEY=VALUE' for each component")
+    report = check(args.reaction, amounts)
+    new = scale(report, args.factor, target_mmol=args.target_mmol, target_product_g=args.target_product_g,
+                vessel_ml=args.vessel_ml, start_c=args.start_c, dh_kj_mol=args.dh_kj_mol)
+    if args.json:
+        print(json.dumps(new.to_dict(), indent=2))
+        return 0
+    print(new.to_text())
+    info = new.extra["scale"]
+    print(f"scale factor {info['factor']:.4g}")
+    for k, v in new.amounts.items():
+        print(f"  {k}: {report.amounts[k]}  ->  {v}")
+    for c in info["cautions"]:
+        print(f"  caution: {c}")
+    return 0

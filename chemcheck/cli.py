@@ -9,6 +9,7 @@ from __future__ import annotations
 import argparse
 import json
 import os
+import re
 import sys
 from collections.abc import Sequence
 
@@ -20,7 +21,9 @@ __all__ = ["main"]
 def _amounts(pairs: Sequence[str]) -> dict[str, str]:
     out: dict[str, str] = {}
     for pair in pairs or ():
-        key, sep, value = pair.partition("=")
+        # SMILES keys contain '=': split at the last '=' that is followed by a number
+        cut = max((m.start() for m in re.finditer(r"=(?=\s*[+-]?[\d.])", pair)), default=-1)
+        key, sep, value = (pair[:cut], "=", pair[cut + 1 :]) if cut > 0 else pair.partition("=")
         if not sep or not key.strip():
             raise ChemcheckError(f"--amount takes KEY=VALUE (the component as written, then the amount), got '{pair}'")
         out[key.strip()] = value.strip()

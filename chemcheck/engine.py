@@ -29,10 +29,11 @@ def check(reaction: str | Reaction, amounts: dict[str, str] | None = None) -> Re
         raise AmountError(f"amounts must be a dict of component text to amount, not {type(amounts).__name__}")
     rxn = reaction if isinstance(reaction, Reaction) else parse_reaction(reaction, join=_join_keys(amounts))
     ctx = Context(rxn, amounts)
+    for comp in rxn.components:
+        comp.kind = ctx.perception(comp).kind if comp.role == "agent" else None
+    stoich = ctx.stoichiometry  # amount errors are raised here, before any rule runs
     findings: list[Finding] = []
     for comp in rxn.components:
-        p = ctx.perception(comp)
-        comp.kind = p.kind if comp.role == "agent" else None
         if comp.sanitization == "partial":
             findings.append(
                 Finding(
@@ -56,6 +57,14 @@ def check(reaction: str | Reaction, amounts: dict[str, str] | None = None) -> Re
         balance=ctx.balance,
     )
     report.extra.update(_basicity_sections(ctx))
+    if stoich is not None:
+        report.stoichiometry = stoich
+        report.extra["table"] = stoich.to_dict()
+        report.extra["metrics"] = {
+            "atom_economy_pct": None if stoich.atom_economy_pct is None else round(stoich.atom_economy_pct, 2),
+            "pmi": None if stoich.pmi is None else round(stoich.pmi, 2),
+            "e_factor": None if stoich.e_factor is None else round(stoich.e_factor, 2),
+        }
     for stage in ctx.sections:
         report.extra.update(stage)
     return report

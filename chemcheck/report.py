@@ -29,6 +29,14 @@ class Report:
     perceptions: dict[int, Any] = field(default_factory=dict)
     balance: Any = None
     extra: dict[str, Any] = field(default_factory=dict)  # sections added by later stages
+    stoichiometry: Any = None
+
+    @property
+    def table(self):
+        """The stoichiometry table as a pandas DataFrame (index: component as written)."""
+        if self.stoichiometry is None:
+            return None
+        return self.stoichiometry.dataframe()
 
     @property
     def components(self) -> list[Component]:

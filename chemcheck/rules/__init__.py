@@ -56,6 +56,16 @@ class Context:
         return s
 
     @cached_property
+    def stoichiometry(self):
+        """The stoichiometry table when amounts were given (None otherwise)."""
+        if not self.amounts:
+            return None
+        from ..stoichiometry import compute
+
+        b = self.balance
+        return compute(self.reaction, self.amounts, b.coefficients if b.balanced else None)
+
+    @cached_property
     def balance(self):
         from ..balance import balance
 
@@ -135,7 +145,7 @@ def parse_doc_sections(doc: str) -> dict[str, str]:
 
 
 def _load() -> None:
-    from . import balance  # noqa: F401
+    from . import balance, stoich  # noqa: F401
 
 
 def registry() -> dict[str, Rule]:

@@ -1,0 +1,360 @@
+"""The stoichiometry table: moles, equivalents, limiting reagent, concentration, yield, metrics.
+
+From the amounts as weighed and measured. Conventions (common practice):
+
+* a component is a formula unit: a salt's molar mass includes every fragment, its moles are
+  of the salt;
+* the limiting reagent is the reactant with the fewest moles per stoichiometric coefficient
+  (coefficients from the balanced equation when it balances, else 1), unless a component is
+  stated as 1.0 equiv: that one is the reference;
+* equivalents are moles relative to the reference;
+* concentration is the limiting reagent's moles over the total liquid volume;
+* theoretical yield from the limiting reagent and the coefficients; percentage yield from an
+  isolated product mass;
+* atom economy (Trost) = M(product) x coefficient / sum of M(reactant) x coefficient;
+  PMI = total mass in / product mass; E-factor (Sheldon) = (mass in - product mass) / product mass.
+"""
+
+from __future__ import annotations
+
+from dataclasses import dataclass, field
+
+from .amounts import Amount, parse_amount
+from .errors import AmountError
+from .reaction import Component, Reaction
+
+__all__ = ["Row", "Stoichiometry", "compute", "COLUMNS"]
+
+COLUMNS = ["role", "formula", "mw", "mass_g", "volume_ml", "density_g_ml", "purity", "mmol", "equiv", "theoretical_g", "yield_pct"]
+
+
+@dataclass
+class Row:
+    component: Component
+    amount: Amount | None
+    mmol: float | None = None
+    mass_g: float | None = None  # mass of the component itself (pure)
+    weighed_g: float | None = None  # what goes on the balance (solution or impure solid)
+    volume_ml: float | None = None
+    density: float | None = None
+    density_source: str | None = None
+    purity: float | None = None
+    equiv: float | None = None
+    theoretical_g: float | None = None
+    yield_pct: float | None = None
+    read_as: str | None = None
+    notes: list[str] = field(default_factory=list)
+
+    def values(self) -> dict:
+        c = self.component
+        return {
+            "role": c.role,
+            "formula": c.formula,
+            "mw": round(c.mw, 3),
+            "mass_g": _r(self.mass_g),
+            "volume_ml": _r(self.volume_ml),
+            "density_g_ml": _r(self.density),
+            "purity": _r(self.purity),
+            "mmol": _r(self.mmol),
+            "equiv": _r(self.equiv),
+            "theoretical_g": _r(self.theoretical_g),
+            "yield_pct": _r(self.yield_pct),
+        }
+
+
+def _r(x):
+    return None if x is None else float(f"{x:.6g}")
+
+
+@dataclass
+class Stoichiometry:
+    rows: list[Row]
+    reference: Row | None
+    limiting: Row | None
+    coefficients: dict[int, int]
+    concentration_m: float | None
+    total_volume_ml: float | None
+    atom_economy_pct: float | None
+    pmi: float | None
+    e_factor: float | None
+    density_missing: list[Row] = field(default_factory=list)
+    mismatches: list[tuple[Row, float, str]] = field(default_factory=list)
+    assumed: bool = False
+
+    def row_for(self, index: int) -> Row | None:
+        return next((r for r in self.rows if r.component.index == index), None)
+
+    def to_dict(self) -> dict:
+        return {
+            "columns": [c for c in COLUMNS if c != "role"],
+            "rows": [
+                {
+                    "component": r.component.index,
+                    "text": r.component.text,
+                    "values": {k: v for k, v in r.values().items() if k != "role"},
+                    "read_as": r.read_as,
+                }
+                for r in self.rows
+            ],
+            "reference": self.reference.component.text if self.reference else None,
+            "limiting": self.limiting.component.text if self.limiting else None,
+            "concentration_m": _r(self.concentration_m),
+            "total_volume_ml": _r(self.total_volume_ml),
+        }
+
+    def dataframe(self):
+        import pandas as pd
+
+        data = {r.component.text: {**r.values(), "read_as": r.read_as} for r in self.rows}
+        df = pd.DataFrame.from_dict(data, orient="index")
+        df.index.name = "component"
+        return df
+
+
+def match_amounts(reaction: Reaction, amounts: dict[str, str]) -> dict[int, str]:
+    """Component index for each amounts key (the component's text as written)."""
+    out: dict[int, str] = {}
+    for key, value in amounts.items():
+        comp = reaction.find(key.strip())
+        if comp is None:
+            known = ", ".join(f"'{c.text}'" for c in reaction.components)
+            raise AmountError(f"no component is written '{key}' in the reaction (components: {known})", key=key, text=str(value))
+        if comp.index in out:
+            raise AmountError("the component has two amounts", key=key, text=str(value))
+        out[comp.index] = value
+    return out
+
+
+def _density(comp: Component, amount: Amount) -> tuple[float | None, str | None]:
+    if amount.density is not None:
+        return amount.density, "as given"
+    from .physprops import props_for
+
+    p = props_for(comp.inchikey)
+    if p is not None and p.density_g_ml and p.phase == "l":
+        return p.density_g_ml, "database, 25 °C"
+    return None, None
+
+
+def _is_solid(comp: Component) -> tuple[bool, float | None]:
+    from .physprops import props_for
+
+    p = props_for(comp.inchikey)
+    if p is not None and p.phase == "s":
+        return True, p.tm_c
+    if len(comp.fragments) > 1 and comp.charge == 0 and any(a.GetFormalCharge() for a in comp.mol.GetAtoms()):
+        return True, None  # a salt drawn as ions
+    return False, None
+
+
+def _read(row: Row) -> None:
+    """Moles and masses of one component from its amount (not equivalents)."""
+    a = row.amount
+    c = row.component
+    mw = c.mw
+    purity = a.purity if a.purity is not None else 1.0
+    row.purity = a.purity
+    if a.kind == "moles":
+        row.mmol = a.value
+        row.mass_g = a.value * mw / 1000
+        row.read_as = f"{a.value:.4g} mmol"
+    elif a.kind == "mass":
+        frac = a.mass_fraction if a.mass_fraction is not None else 1.0
+        row.weighed_g = a.value
+        row.mass_g = a.value * frac * purity
+        row.mmol = row.mass_g / mw * 1000
+        if a.mass_fraction is not None and a.density is not None:
+            row.volume_ml = a.value / a.density
+            row.density = a.density
+        what = f"{a.value:.4g} g" + (f" of a {100 * frac:.3g} wt% solution" if a.mass_fraction else "")
+        what += f" at {100 * purity:.3g} % purity" if a.purity is not None else ""
+        if a.mass_fraction is None and a.purity is None:
+            row.read_as = f"{what} = {row.mmol:.4g} mmol"
+        else:
+            row.read_as = f"{what} = {row.mass_g:.4g} g of {c.formula} = {row.mmol:.4g} mmol"
+    elif a.kind == "volume":
+        row.volume_ml = a.value
+        if a.molarity is not None:
+            row.mmol = a.value * a.molarity * purity
+            row.mass_g = row.mmol * mw / 1000
+            row.read_as = f"{a.value:.4g} mL of {a.molarity:.4g} M = {row.mmol:.4g} mmol"
+            row.density = a.density
+        else:
+            density, source = _density(c, a)
+            if a.mass_fraction is None:
+                solid, tm = _is_solid(c)
+                if solid and a.density is None:
+                    extra = f" (m.p. {tm:.0f} °C)" if tm is not None else ""
+                    raise AmountError(
+                        f"{c.label} is a solid at 25 °C{extra}: give a mass, or the molarity of a solution",
+                        key=c.text, text=a.text,
+                    )
+            if density is None:
+                row.density = None
+                row.read_as = f"{a.value:.4g} mL (density unknown: moles not computed)"
+                row.notes.append("density unknown")
+                return
+            row.density, row.density_source = density, source
+            weighed = a.value * density
+            frac = a.mass_fraction if a.mass_fraction is not None else 1.0
+            if a.mass_fraction is not None and a.density is None:
+                row.notes.append("density unknown")
+                row.read_as = f"{a.value:.4g} mL of a {100 * frac:.3g} wt% solution (its density is needed)"
+                row.density = None
+                return
+            row.weighed_g = weighed
+            row.mass_g = weighed * frac * purity
+            row.mmol = row.mass_g / c.mw * 1000
+            row.read_as = (
+                f"{a.value:.4g} mL × {density:.4g} g/mL ({source}) = {weighed:.4g} g"
+                + (f" of a {100 * frac:.3g} wt% solution" if a.mass_fraction is not None else "")
+                + f" = {row.mmol:.4g} mmol"
+            )
+
+
+def compute(reaction: Reaction, amounts: dict[str, str], coefficients: dict[int, int] | None) -> Stoichiometry:
+    keyed = match_amounts(reaction, amounts)
+    rows: list[Row] = []
+    for comp in reaction.components:
+        text = keyed.get(comp.index)
+        amount = parse_amount(text, key=comp.text) if text is not None else None
+        rows.append(Row(comp, amount))
+    coeff = {c.index: 1 for c in reaction.components}
+    if coefficients:
+        coeff.update(coefficients)
+    # absolute amounts first
+    for row in rows:
+        if row.amount is not None and row.amount.kind != "equiv":
+            _read(row)
+    # the reference: a component stated as 1.0 equiv, else the limiting reactant
+    stated_one = [
+        r for r in rows
+        if r.amount is not None
+        and ((r.amount.kind == "equiv" and abs(r.amount.value - 1.0) < 1e-9) or (r.amount.stated_equiv is not None and abs(r.amount.stated_equiv - 1.0) < 1e-9))
+        and r.component.role != "product"
+    ]
+    reactants_with = [r for r in rows if r.component.role == "reactant" and r.mmol is not None]
+    limiting = min(reactants_with, key=lambda r: r.mmol / coeff[r.component.index], default=None)
+    reference = stated_one[0] if stated_one else limiting
+    ref_mmol = reference.mmol if reference is not None else None
+    if reference is not None and ref_mmol is None:
+        # the reference is stated only in equivalents: scale from another component that has
+        # both an amount and stated equivalents
+        for r in rows:
+            if r.mmol is not None and r.amount is not None and r.amount.stated_equiv:
+                ref_mmol = r.mmol / r.amount.stated_equiv
+                break
+        if ref_mmol is not None:
+            reference.mmol = ref_mmol
+            reference.mass_g = ref_mmol * reference.component.mw / 1000
+            reference.read_as = f"1.0 equiv = {ref_mmol:.4g} mmol"
+    for row in rows:
+        a = row.amount
+        if a is not None and a.kind == "equiv":
+            row.equiv = a.value
+            if ref_mmol is not None:
+                row.mmol = a.value * ref_mmol
+                row.mass_g = row.mmol * row.component.mw / 1000
+                row.read_as = f"{a.value:.4g} equiv = {row.mmol:.4g} mmol"
+            else:
+                row.read_as = f"{a.value:.4g} equiv"
+        elif row.mmol is not None and ref_mmol and row.component.kind != "solvent":
+            row.equiv = row.mmol / ref_mmol
+    if limiting is None:
+        cands = [r for r in rows if r.component.role == "reactant" and r.mmol is not None]
+        limiting = min(cands, key=lambda r: r.mmol / coeff[r.component.index], default=None)
+    # products: theoretical yield, and the yield of an isolated mass
+    for row in rows:
+        if row.component.role != "product" or limiting is None or limiting.mmol is None:
+            continue
+        k = coeff.get(row.component.index, 1) / coeff.get(limiting.component.index, 1)
+        row.theoretical_g = limiting.mmol * k * row.component.mw / 1000
+        if row.amount is not None and row.mass_g is not None and row.amount.kind in ("mass", "moles"):
+            row.yield_pct = 100 * row.mass_g / row.theoretical_g
+            row.equiv = None
+    # concentration of the limiting reagent in the liquid volume
+    volumes = [r.volume_ml for r in rows if r.volume_ml and r.component.role != "product"]
+    total_v = sum(volumes) if volumes else None
+    conc = limiting.mmol / total_v if (limiting is not None and limiting.mmol and total_v) else None
+    # consistency of stated equivalents
+    mismatches = []
+    for row in rows:
+        a = row.amount
+        if a is None or a.stated_equiv is None or row.mmol is None or not ref_mmol or row is reference:
+            continue
+        actual = row.mmol / ref_mmol
+        if abs(actual - a.stated_equiv) / a.stated_equiv > 0.05:
+            mismatches.append((row, actual, _likely_cause(row, a, ref_mmol)))
+    ae = _atom_economy(reaction, coeff)
+    pmi = e_factor = None
+    products_isolated = [r for r in rows if r.component.role == "product" and r.yield_pct is not None]
+    if products_isolated:
+        product_mass = sum(r.mass_g for r in products_isolated)
+        inputs = 0.0
+        for r in rows:
+            if r.component.role == "product":
+                continue
+            if r.weighed_g is not None:
+                inputs += r.weighed_g
+            elif r.mass_g is not None:
+                inputs += r.mass_g
+        if product_mass > 0 and inputs > 0:
+            pmi = inputs / product_mass
+            e_factor = (inputs - product_mass) / product_mass
+    return Stoichiometry(
+        rows=rows,
+        reference=reference,
+        limiting=limiting,
+        coefficients=coeff,
+        concentration_m=conc,
+        total_volume_ml=total_v,
+        atom_economy_pct=ae,
+        pmi=pmi,
+        e_factor=e_factor,
+        density_missing=[r for r in rows if "density unknown" in r.notes],
+        mismatches=mismatches,
+    )
+
+
+def _atom_economy(reaction: Reaction, coeff: dict[int, int]) -> float | None:
+    products = reaction.products
+    reactants = reaction.reactants
+    if not products or not reactants:
+        return None
+    main = max(products, key=lambda c: c.mw)
+    denom = sum(c.mw * coeff.get(c.index, 1) for c in reactants)
+    if denom <= 0:
+        return None
+    return 100 * main.mw * coeff.get(main.index, 1) / denom
+
+
+def _likely_cause(row: Row, a: Amount, ref_mmol: float) -> str:
+    """Why an amount and its stated equivalents disagree: the usual suspects, tested."""
+    c = row.component
+    target = a.stated_equiv * ref_mmol
+    causes = []
+    # salt weighed, free-base molar mass used in the plan (or the reverse)
+    from rdkit import Chem
+    from rdkit.Chem import Descriptors
+
+    frags = Chem.GetMolFrags(c.mol, asMols=True)
+    if len(frags) > 1 and row.mass_g is not None:
+        biggest = max(frags, key=lambda m: m.GetNumHeavyAtoms())
+        alt = row.mass_g / Descriptors.MolWt(biggest) * 1000
+        if abs(alt - target) / target <= 0.05:
+            causes.append("the planned amount used the free base's molar mass, but this is the salt")
+    if row.mass_g is not None:
+        for acid, m in (("hydrochloride", 36.461), ("hydrobromide", 80.912), ("trifluoroacetate", 114.02)):
+            alt = row.mass_g / (c.mw + m) * 1000
+            if abs(alt - target) / target <= 0.05:
+                causes.append(f"the material may be the {acid} salt (molar mass {c.mw + m:.1f})")
+    if a.kind == "volume" and row.density and a.molarity is None:
+        implied = target * c.mw / 1000 / a.value
+        causes.append(f"the density used ({row.density:.3g} g/mL) would have to be {implied:.3g} g/mL")
+    if a.purity is None and row.mmol and target < row.mmol:
+        pur = target / row.mmol
+        if 0.5 <= pur < 0.99:
+            causes.append(f"a purity of about {100 * pur:.0f} % would explain it")
+    if not causes:
+        causes.append("check the reference component and the arithmetic")
+    return "; ".join(causes)
