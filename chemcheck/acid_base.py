@@ -85,8 +85,9 @@ def max_conversion(
     At conversion x the reaction has consumed x*E*nucleophile_per_turnover of the nucleophile
     and released x*E*acid_per_turnover protons (plus ``protons_present`` brought in); the
     released acid's own conjugate base (pKa ``released_pka``, e.g. acetate) competes for them.
-    The reaction stops when the free (unprotonated) nucleophile falls below ``threshold`` of
-    its starting amount.
+    The reaction stops when the free (unprotonated) share of the nucleophile still present
+    falls below ``threshold``: a weak acid that leaves a few percent free only slows the
+    reaction, while HCl against an alkylamine leaves essentially none.
     """
     n0 = nucleophile.mmol
     e = electrophile_mmol
@@ -101,14 +102,21 @@ def max_conversion(
         d = distribute(acc, x * e * acid_per_turnover + protons_present)
         return remaining - d.protonated.get(nucleophile.label, 0.0)
 
-    if free_at(1.0) > threshold * n0:
+    def going(x: float) -> bool:
+        remaining = n0 - x * e * nucleophile_per_turnover
+        if remaining <= 1e-12 * max(n0, 1e-12):
+            return False
+        return free_at(x) > threshold * remaining
+
+    x_end = min(1.0, n0 / (e * nucleophile_per_turnover)) if e > 0 else 1.0
+    if going(x_end * (1 - 1e-6)):
         return 1.0
-    lo, hi = 0.0, 1.0
-    if free_at(0.0) <= threshold * n0:
+    lo, hi = 0.0, x_end
+    if not going(0.0):
         return 0.0
     for _ in range(60):
         mid = (lo + hi) / 2
-        if free_at(mid) > threshold * n0:
+        if going(mid):
             lo = mid
         else:
             hi = mid

@@ -51,8 +51,20 @@ class GroupMatch:
         return self.atoms[0]
 
 
+def _ensure_rings(mol: Chem.Mol) -> None:
+    # molecules read with partial sanitization or split without it have no ring information
+    from .. import _rdlog
+
+    with _rdlog.captured():
+        try:
+            mol.GetRingInfo().NumRings()
+        except RuntimeError:
+            Chem.FastFindRings(mol)
+
+
 def nitrogen_sites(mol: Chem.Mol) -> list[NitrogenSite]:
     """One site per nitrogen atom, classified by the first catalog class that matches it."""
+    _ensure_rings(mol)
     kind_of: dict[int, str] = {}
     for cls in NITROGEN_CLASSES:
         for smarts in cls.smarts:
@@ -86,6 +98,7 @@ def _alpha_h(mol: Chem.Mol, carbonyl: int) -> int:
 
 
 def reactive_groups(mol: Chem.Mol) -> list[GroupMatch]:
+    _ensure_rings(mol)
     out: list[GroupMatch] = []
     for g in GROUPS:
         seen: set[int] = set()
@@ -238,6 +251,8 @@ def agent_kind(nitrogens, groups: list[GroupMatch], hint: str | None) -> str:
         return "reductant"
     if names & {"peroxide", "metal_oxo_oxidant"}:
         return "oxidant"
+    if "carbonate" in names:
+        return "base"  # bicarbonate's O-H also matches the carboxylic acid pattern
     if names & set(_ACID_GROUPS) or "ammonium" in names:
         basic_n = [s for s in nitrogens if s.basic]
         if not basic_n or names & {"hydrogen_halide", "sulfonic_acid"} or "ammonium" in names:

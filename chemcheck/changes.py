@@ -1,0 +1,152 @@
+"""Which atoms change between reactants and products, with or without atom maps.
+
+With atom maps, a reactant atom and a product atom of the same map number are the same atom.
+Without them, each product is compared with each reactant by their maximum common
+substructure (RDKit FMCS: elements and bond orders compared, ring atoms matched to ring
+atoms only, bounded by a timeout), which maps the reactant's atoms onto the product; a mapped
+atom that has more heavy neighbours in the product than in the reactant has formed a new bond,
+and its new neighbours that lie outside the common part are the partner atoms.
+"""
+
+from __future__ import annotations
+
+from dataclasses import dataclass
+from functools import lru_cache
+
+from rdkit import Chem
+from rdkit.Chem import rdFMCS
+
+from . import _rdlog
+from .reaction import Reaction
+
+__all__ = ["NewBond", "new_bonds_at_nitrogen", "atom_correspondence"]
+
+MCS_TIMEOUT_S = 1
+
+
+@dataclass(frozen=True)
+class NewBond:
+    reactant: int  # component index
+    reactant_atom: int
+    product: int
+    product_atom: int
+    partners: tuple[int, ...]  # product atom indices bound to the atom in the product only
+    charge_before: int
+    charge_after: int
+    heavy_before: int
+    heavy_after: int
+    kind_before: str = ""
+    kind_after: str = ""
+
+
+@lru_cache(maxsize=256)
+def _mcs_map(r_smiles: str, p_smiles: str) -> tuple[tuple[int, int], ...]:
+    with _rdlog.captured():
+        r = Chem.MolFromSmiles(r_smiles)
+        p = Chem.MolFromSmiles(p_smiles)
+        if r is None or p is None or r.GetNumAtoms() < 2:
+            return ()
+        res = rdFMCS.FindMCS(
+            [r, p],
+            timeout=MCS_TIMEOUT_S,
+            atomCompare=rdFMCS.AtomCompare.CompareElements,
+            bondCompare=rdFMCS.BondCompare.CompareOrder,
+            ringMatchesRingOnly=True,
+            completeRingsOnly=False,
+            matchValences=False,
+        )
+        if not res.smartsString or res.numAtoms < max(2, int(0.5 * r.GetNumHeavyAtoms())):
+            return ()
+        q = Chem.MolFromSmarts(res.smartsString)
+        if q is None:
+            return ()
+        rm = r.GetSubstructMatch(q)
+        pms = p.GetSubstructMatches(q, uniquify=False, maxMatches=200)
+    if not rm or not pms:
+        return ()
+
+    def cost(pm) -> int:
+        # the chemically closest placement changes the fewest atoms (principle of minimal
+        # chemical distance): compare heavy-neighbour and hydrogen counts atom by atom
+        total = 0
+        for a, b in zip(rm, pm):
+            ra, pa = r.GetAtomWithIdx(a), p.GetAtomWithIdx(b)
+            total += abs(ra.GetDegree() - pa.GetDegree()) + abs(ra.GetTotalNumHs() - pa.GetTotalNumHs())
+        return total
+
+    best = min(pms, key=cost)
+    return tuple(zip(rm, best))
+
+
+def atom_correspondence(reaction: Reaction) -> dict[tuple[int, int], tuple[int, int]]:
+    """(reactant component, atom) -> (product component, atom)."""
+    out: dict[tuple[int, int], tuple[int, int]] = {}
+    if reaction.mapped:
+        prod_by_map = {}
+        for p in reaction.products:
+            for a in p.mol.GetAtoms():
+                if a.GetAtomMapNum():
+                    prod_by_map[a.GetAtomMapNum()] = (p.index, a.GetIdx())
+        for r in reaction.reactants:
+            for a in r.mol.GetAtoms():
+                if a.GetAtomMapNum() and a.GetAtomMapNum() in prod_by_map:
+                    out[(r.index, a.GetIdx())] = prod_by_map[a.GetAtomMapNum()]
+        return out
+    for r in reaction.reactants:
+        if r.sanitization != "full":
+            continue
+        best: tuple[int, tuple] | None = None
+        for p in reaction.products:
+            if p.sanitization != "full":
+                continue
+            pairs = _mcs_map(Chem.MolToSmiles(r.mol), Chem.MolToSmiles(p.mol))
+            if not pairs:
+                continue
+            # the canonical SMILES reorders atoms: map back through the canonical ranks
+            r_order = _canonical_order(r.mol)
+            p_order = _canonical_order(p.mol)
+            mapped = tuple((r_order[a], p_order[b]) for a, b in pairs)
+            if best is None or len(mapped) > len(best[1]):
+                best = (p.index, mapped)
+        if best is not None:
+            for ra, pa in best[1]:
+                out[(r.index, ra)] = (best[0], pa)
+    return out
+
+
+def _canonical_order(mol: Chem.Mol) -> list[int]:
+    """Index in the original molecule of each atom of its canonical SMILES."""
+    with _rdlog.captured():
+        Chem.MolToSmiles(mol)
+    order = mol.GetProp("_smilesAtomOutputOrder")
+    return [int(x) for x in order.strip("[]").split(",") if x.strip()]
+
+
+def new_bonds_at_nitrogen(reaction: Reaction) -> list[NewBond]:
+    from .perceive import nitrogen_sites
+
+    corr = atom_correspondence(reaction)
+    comps = reaction.components
+    kinds = {c.index: {s.atom_index: s.kind for s in nitrogen_sites(c.mol)} for c in comps if c.role != "agent"}
+    out = []
+    inverse: dict[tuple[int, int], set[tuple[int, int]]] = {}
+    for k, v in corr.items():
+        inverse.setdefault(v, set()).add(k)
+    for (ri, ra), (pi, pa) in corr.items():
+        ratom = comps[ri].mol.GetAtomWithIdx(ra)
+        if ratom.GetAtomicNum() != 7:
+            continue
+        patom = comps[pi].mol.GetAtomWithIdx(pa)
+        heavy_r = sum(1 for n in ratom.GetNeighbors() if n.GetAtomicNum() > 1)
+        heavy_p = sum(1 for n in patom.GetNeighbors() if n.GetAtomicNum() > 1)
+        kb = kinds.get(ri, {}).get(ra, "")
+        ka = kinds.get(pi, {}).get(pa, "")
+        acylated = kb != ka and ka in ("amide", "sulfonamide", "carbamate", "urea", "imide")
+        if heavy_p <= heavy_r and not acylated:
+            continue
+        mapped_from_same = {pa2 for (ri2, ra2), (pi2, pa2) in corr.items() if ri2 == ri and pi2 == pi}
+        partners = tuple(n.GetIdx() for n in patom.GetNeighbors() if n.GetAtomicNum() > 1 and n.GetIdx() not in mapped_from_same)
+        out.append(
+            NewBond(ri, ra, pi, pa, partners, ratom.GetFormalCharge(), patom.GetFormalCharge(), heavy_r, heavy_p, kb, ka)
+        )
+    return out

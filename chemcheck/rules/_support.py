@@ -1,0 +1,199 @@
+"""What several rules need to know: nucleophiles, acid-releasing electrophiles, the bases
+present with their strength and amount, and Lewis-basic sites."""
+
+from __future__ import annotations
+
+from dataclasses import dataclass
+
+from ..acid_base import Acceptor
+from ..reaction import Component
+from . import Context
+
+# nitrogen kinds whose lone pair is free to attack an electrophile (with an N-H to lose,
+# except tertiary amines in alkylation)
+NUCLEOPHILIC_N = {"primary_amine", "secondary_amine", "ammonia", "aryl_amine", "hydrazine", "hydroxylamine"}
+LEWIS_BASIC_N = NUCLEOPHILIC_N | {"tertiary_amine", "pyridine_type", "amidine", "guanidine", "imine", "enamine"}
+
+# acid released per reacting group, and the pKa of that acid (CRC; see basicity/acids.py)
+ACID_RELEASING = {
+    "acid_halide": "HX",
+    "chloroformate": "HX",
+    "carbamoyl_chloride": "HX",
+    "carbonyl_dihalide": "HX",
+    "sulfonyl_halide": "HX",
+    "inorganic_acid_chloride": "HX",
+    "anhydride": "carboxylic acid",
+    "sulfonic_anhydride": "sulfonic acid",
+    "alkyl_halide": "HX",
+    "alkyl_sulfonate": "sulfonic acid",
+}
+ACYLATING = {"acid_halide", "chloroformate", "carbamoyl_chloride", "carbonyl_dihalide", "sulfonyl_halide", "anhydride", "sulfonic_anhydride", "inorganic_acid_chloride"}
+ALKYLATING = {"alkyl_halide", "alkyl_sulfonate"}
+HX_PKA = {"Cl": -6.0, "Br": -9.0, "I": -10.0, "F": 3.17}
+SULFONIC_PKA = -2.0
+
+# bases that are not nitrogen: conjugate-acid pKa of each proton they take (CRC, Bordwell for
+# the very strong ones; see basicity/acids.py)
+INORGANIC_BASE_SITES = {
+    # a carbonate takes two protons and a bicarbonate one, irreversibly where CO2 can escape
+    # (as it does from an open flask or a biphasic wash): counted as a strong scavenger
+    "carbonate": (12.0, 12.0),
+    "hydroxide": (14.0,),
+    "alkoxide": (16.0,),
+    "phenoxide": (10.0,),
+    "carboxylate": (4.76,),
+    "phosphate_base": (12.35,),
+    "hydride_ion": (35.0,),
+    "metal_amide": (36.0,),
+    "organometallic_base": (45.0,),
+}
+
+
+@dataclass
+class Base:
+    component: Component
+    label: str
+    pka: float
+    mmol: float
+    atom: int | None
+    assumed: bool
+
+    def acceptor(self) -> Acceptor:
+        return Acceptor(f"{self.label}#{self.atom}", self.pka, self.mmol)
+
+
+def amount_mmol(ctx: Context, comp: Component, nominal: float = 1.0) -> tuple[float, bool]:
+    """Moles of a component from the amounts, else the assumed 1 equiv (nominal 1 mmol)."""
+    st = ctx.stoichiometry
+    if st is not None:
+        row = st.row_for(comp.index)
+        if row is not None and row.mmol is not None:
+            return row.mmol, False
+        if st.reference is not None and st.reference.mmol:
+            return st.reference.mmol * nominal, True
+    return nominal, True
+
+
+def amounts_given(ctx: Context) -> bool:
+    return ctx.stoichiometry is not None
+
+
+def salt_info(ctx: Context, comp: Component) -> tuple[bool, list]:
+    """(is an amine salt, the free-base sites) for a component."""
+    p = ctx.perception(comp)
+    sites = ctx.sites(comp)
+    ammonium = [s for s in sites if s.kind == "ammonium" and s.pka is not None]
+    if ammonium:
+        return True, ammonium
+    if p.has("hydrogen_halide", "sulfonic_acid", "perfluoro_acid") and any(
+        s.kind in NUCLEOPHILIC_N | {"tertiary_amine"} for s in sites
+    ):
+        return True, [s for s in sites if s.pka is not None]
+    return False, []
+
+
+def nucleophile_sites(ctx: Context, comp: Component, kinds=NUCLEOPHILIC_N):
+    sites = [s for s in ctx.sites(comp) if s.pka is not None]
+    out = []
+    for s in sites:
+        kind = s.kind
+        if kind == "ammonium":
+            # a salt: its free base's class
+            kind = _free_kind(ctx, comp, s.atom_index)
+        if kind in kinds:
+            out.append(s)
+    return out
+
+
+def _free_kind(ctx: Context, comp: Component, idx: int) -> str:
+    from ..basicity import _deprotonate
+    from ..perceive import nitrogen_sites
+
+    free = _deprotonate(comp.mol, idx)
+    return {x.atom_index: x.kind for x in nitrogen_sites(free)}.get(idx, "")
+
+
+def bases_present(ctx: Context, exclude: set[int]) -> list[Base]:
+    """Every proton acceptor among the reactants and agents outside ``exclude``."""
+    out: list[Base] = []
+    for comp in ctx.reaction.components:
+        if comp.role == "product" or comp.index in exclude:
+            continue
+        if comp.kind == "solvent" and comp.kind_hint == "solvent" and not ctx.sites(comp):
+            continue
+        mmol, assumed = amount_mmol(ctx, comp)
+        p = ctx.perception(comp)
+        is_salt, _ = salt_info(ctx, comp)
+        for s in ctx.sites(comp):
+            if s.pka is None or s.kind == "ammonium" or s.kind == "amide_anion":
+                continue
+            if is_salt:
+                continue
+            out.append(Base(comp, comp.label, s.pka, mmol, s.atom_index, assumed))
+        for g in p.groups:
+            sites = INORGANIC_BASE_SITES.get(g.name)
+            if not sites:
+                continue
+            if g.name == "carboxylate" and p.has("carboxylic_acid"):
+                continue
+            if g.name == "carbonate" and comp.mol.GetAtomWithIdx(g.centre).GetTotalNumHs() == 0 and any(
+                n.GetTotalNumHs() for n in comp.mol.GetAtomWithIdx(g.centre).GetNeighbors()
+            ):
+                sites = sites[:1]  # bicarbonate: one proton
+            for pka in sites:
+                out.append(Base(comp, comp.label, pka, mmol, g.centre, assumed))
+    return out
+
+
+def acids_brought_in(ctx: Context, exclude: set[int]) -> list[tuple[Component, float, float]]:
+    """(component, pKa, mmol of protons) for acidic reagents: free acids and amine salts."""
+    out = []
+    for comp in ctx.reaction.components:
+        if comp.role == "product" or comp.index in exclude:
+            continue
+        p = ctx.perception(comp)
+        mmol, _ = amount_mmol(ctx, comp)
+        is_salt, sites = salt_info(ctx, comp)
+        if is_salt:
+            out.append((comp, max(s.pka for s in sites), mmol))
+            continue
+        if p.has("hydrogen_halide", "sulfonic_acid", "perfluoro_acid", "nitric_acid"):
+            out.append((comp, -2.0, mmol))
+        elif p.has("carboxylic_acid") and not p.has("carbonate") and comp.kind in ("acid", None, "other"):
+            out.append((comp, 4.76, mmol))
+    return out
+
+
+def released_acid(groups) -> tuple[str, float]:
+    """Name and pKa of the acid a reacting electrophile group releases."""
+    g = groups[0]
+    kind = ACID_RELEASING[g.name]
+    if kind == "HX":
+        x = g.detail or "Cl"
+        if x not in HX_PKA:
+            x = "Cl"
+        return f"H{x}", HX_PKA[x]
+    if kind == "carboxylic acid":
+        return "carboxylic acid", 4.76
+    return "sulfonic acid", SULFONIC_PKA
+
+
+def electrophiles(ctx: Context, names=None) -> list[tuple[Component, list]]:
+    names = names or set(ACID_RELEASING)
+    out = []
+    for comp in ctx.reaction.reactants + [a for a in ctx.reaction.agents if a.kind == "other"]:
+        gs = [g for g in ctx.perception(comp).groups if g.name in names]
+        if gs:
+            out.append((comp, gs))
+    return out
+
+
+def changed_nitrogens(ctx: Context):
+    """New bonds at nitrogens between reactants and products (cached on the context)."""
+    cached = getattr(ctx, "_new_n_bonds", None)
+    if cached is None:
+        from ..changes import new_bonds_at_nitrogen
+
+        cached = new_bonds_at_nitrogen(ctx.reaction) if ctx.reaction.products else []
+        ctx._new_n_bonds = cached
+    return cached

@@ -1,0 +1,1008 @@
+"""Pitfalls that follow from what a nitrogen is: its lone pair, its basicity, its hydrogens."""
+
+from __future__ import annotations
+
+import math
+
+from ..acid_base import Acceptor, max_conversion
+from . import Context, rule
+from ._support import (
+    ACID_RELEASING,
+    ACYLATING,
+    ALKYLATING,
+    LEWIS_BASIC_N,
+    NUCLEOPHILIC_N,
+    acids_brought_in,
+    amount_mmol,
+    amounts_given,
+    bases_present,
+    changed_nitrogens,
+    electrophiles,
+    nucleophile_sites,
+    released_acid,
+    salt_info,
+)
+
+SAFETY = "Check the SDS of each reagent, local regulations and your institution's safety review before running it."
+
+_KIND_WORD = {
+    "primary_amine": "primary amine", "secondary_amine": "secondary amine", "tertiary_amine": "tertiary amine",
+    "aryl_amine": "aryl amine", "pyridine_type": "pyridine-type", "amidine": "amidine", "guanidine": "guanidine",
+    "imine": "imine", "enamine": "enamine", "ammonia": "ammonia", "hydrazine": "hydrazine",
+    "hydroxylamine": "hydroxylamine", "amide": "amide", "sulfonamide": "sulfonamide", "carbamate": "carbamate",
+    "imide": "imide", "urea": "urea", "pyrrole_type": "pyrrole-type", "nitro": "nitro",
+    "quaternary_ammonium": "quaternary ammonium",
+}
+
+
+def _word(kind: str) -> str:
+    return _KIND_WORD.get(kind, kind.replace("_", " "))
+
+
+def _pct(x: float) -> str:
+    """A conversion as a chemist would quote it: to the nearest 5 %."""
+    return f"about {5 * round(20 * x):.0f} %"
+
+
+# --------------------------------------------------------------------------- Lewis acids
+def _lewis_basic_carbonyls(ctx: Context, comp) -> int:
+    p = ctx.perception(comp)
+    n = 0
+    for g in p.groups:
+        if g.name in ("ketone", "ester", "aldehyde"):
+            n += 1
+    n += sum(1 for s in p.nitrogens if s.kind in ("amide", "carbamate", "urea", "imide"))
+    return n
+
+
+@rule(id="lewis-acid-quenched-by-amine", title="A basic nitrogen quenches the Lewis acid", severity="error")
+def lewis_acid_quenched_by_amine(ctx: Context):
+    """Basic nitrogen meets a Lewis acid.
+
+    What it flags
+        A Lewis acid (Al, Fe, B, Ti, Sn, Zn halides or triflates, BF3 etherate, ...) in the same
+        reaction as a basic nitrogen (alkylamine, aryl amine, pyridine-type or imidazole N,
+        amidine) in the substrate, a reagent or an additive. As an info note (a warning when
+        the amounts fall short) it also counts the Lewis acid that amide and ketone carbonyls
+        and the product ketone of an acylation tie up.
+
+    Why it matters
+        The nitrogen's lone pair binds the Lewis acid before it can activate the electrophile.
+        In Friedel–Crafts and other ring substitutions the N-bound complex also turns an
+        activating amino group into a strongly deactivating one, so anilines do not undergo
+        Friedel–Crafts reactions. Carbonyl groups bind AlCl3 too, which is why Friedel–Crafts
+        acylations need more than one equivalent.
+
+    Example
+        ``Nc1ccccc1.CC(=O)Cl>AlCl3>CC(=O)c1ccc(N)cc1``: the aniline nitrogen takes the AlCl3.
+
+    Use instead
+        Protect the nitrogen as an amide (acetanilide from acetic anhydride), run the reaction,
+        then hydrolyse the amide. Count one equivalent of Lewis acid for each Lewis-basic site
+        plus one for the product ketone of an acylation. Leave amine bases out of Lewis-acid
+        steps.
+
+    References
+        J. Clayden, N. Greeves, S. Warren, *Organic Chemistry*, 2nd ed., OUP 2012, ch. 21
+        (electrophilic aromatic substitution; anilines and Friedel–Crafts).
+        M. B. Smith, *March's Advanced Organic Chemistry*, 8th ed., Wiley 2020, ch. 11
+        (Friedel–Crafts acylation: stoichiometric Lewis acid, complexation by the product).
+    """
+    r = lewis_acid_quenched_by_amine.rule
+    rxn = ctx.reaction
+    acids = []
+    for comp in rxn.reactants + rxn.agents:
+        for g in ctx.perception(comp).groups:
+            if g.name == "lewis_acid":
+                acids.append((comp, g))
+    if not acids:
+        return
+    la_comp, la_group = acids[0]
+    la_names = ", ".join(dict.fromkeys(c.label for c, _ in acids))
+    acylation = any(
+        ctx.perception(c).has("acid_halide", "anhydride") for c in rxn.reactants + rxn.agents if c.index != la_comp.index
+    )
+    ring_substitution = acylation or any(
+        ctx.perception(c).has("acid_halide", "alkyl_halide", "halogen", "nitrating_agent", "anhydride")
+        for c in rxn.reactants + rxn.agents
+    )
+    fired = False
+    for comp in rxn.reactants + rxn.agents:
+        if comp.index in {c.index for c, _ in acids}:
+            continue
+        if salt_info(ctx, comp)[0]:
+            continue
+        sites = [
+            s for s in ctx.sites(comp)
+            if s.kind in LEWIS_BASIC_N and s.pka is not None and s.pka >= -1.0
+        ]
+        if not sites:
+            continue
+        fired = True
+        best = max(sites, key=lambda s: s.pka)
+        where = "substrate" if comp.role == "reactant" else "additive"
+        msg = (
+            f"{la_names} will be taken up by the {_word(best.kind)} nitrogen of {comp.label} "
+            f"(pKa {best.pka:.1f}, the {where}) before it can activate the reaction: the nitrogen's lone pair "
+            "binds the Lewis acid."
+        )
+        aromatic_n = best.kind in ("aryl_amine",) or comp.mol.GetAtomWithIdx(best.atom_index).GetIsAromatic()
+        if ring_substitution and comp.role == "reactant" and aromatic_n:
+            msg += (
+                " The N–Lewis acid complex also turns the nitrogen into a strongly deactivating group, so the ring "
+                "substitution stalls."
+            )
+        if comp.role == "agent":
+            fix = (
+                f"Leave {comp.label} out of the Lewis-acid step (it is not needed to take up HCl in a "
+                "Friedel–Crafts reaction), or use a Lewis acid the amine does not bind."
+            )
+        else:
+            fix = (
+                f"Protect the nitrogen of {comp.label} as an amide (e.g. the acetamide from Ac2O), run the "
+                "reaction, then hydrolyse the amide."
+            )
+        need = len(sites) + _lewis_basic_carbonyls(ctx, comp) + (1 if acylation else 0)
+        fix += f" Count at least {need} equiv of Lewis acid for this substrate ({len(sites)} basic N"
+        fix += f", {_lewis_basic_carbonyls(ctx, comp)} carbonyl" if _lewis_basic_carbonyls(ctx, comp) else ""
+        fix += ", 1 for the product ketone" if acylation else ""
+        fix += ")"
+        if amounts_given(ctx):
+            have, assumed = amount_mmol(ctx, la_comp)
+            ref = ctx.stoichiometry.reference
+            if not assumed and ref is not None and ref.mmol:
+                fix += f"; {have / ref.mmol:.2g} equiv present"
+        fix += "."
+        atoms = [(comp.index, s.atom_index) for s in sites] + [(la_comp.index, la_group.centre)]
+        yield r.finding(msg, atoms=atoms, fix=fix)
+    if fired or not acylation:
+        return
+    # no basic nitrogen: count what the carbonyls and the product ketone tie up
+    for comp in rxn.reactants:
+        if ctx.perception(comp).has("acid_halide", "anhydride"):
+            continue
+        carbonyls = _lewis_basic_carbonyls(ctx, comp)
+        amide_n = [s for s in ctx.perception(comp).nitrogens if s.kind in ("amide", "carbamate", "urea", "imide")]
+        if not carbonyls:
+            continue
+        need = carbonyls + 1
+        have = None
+        if amounts_given(ctx):
+            mmol, assumed = amount_mmol(ctx, la_comp)
+            sub, sub_assumed = amount_mmol(ctx, comp)
+            if not assumed and not sub_assumed and sub:
+                have = mmol / sub
+        text = (
+            f"The carbonyl{'s' if carbonyls > 1 else ''} of {comp.label} and the product ketone each bind "
+            f"{la_comp.label}: a Friedel–Crafts acylation of this substrate needs at least {need} equiv"
+        )
+        severity = "info"
+        if have is not None:
+            text += f"; {have:.2g} equiv present"
+            if have < need - 0.05:
+                severity = "warning"
+                text += f", so at most about {max(have - carbonyls, 0):.2g} equiv is free to activate the acylating agent"
+        text += "."
+        atoms = [(comp.index, s.atom_index) for s in amide_n] + [(la_comp.index, la_group.centre)]
+        yield r.finding(
+            text,
+            atoms=atoms,
+            fix=f"Use {need + 0.1:.1f}–{need + 0.5:.1f} equiv of {la_comp.label} relative to {comp.label}.",
+            severity=severity,
+        )
+
+
+# --------------------------------------------------------------------------- acid scavenging
+def _nucleophile(ctx: Context, electrophile):
+    """The component whose nitrogen attacks the electrophile, and that nitrogen's site."""
+    changed = {nb.reactant: nb for nb in changed_nitrogens(ctx)}
+    cands = []
+    for comp in ctx.reaction.reactants:
+        if comp.index == electrophile.index:
+            continue
+        sites = nucleophile_sites(ctx, comp)
+        if not sites:
+            continue
+        if changed and comp.index in changed:
+            site = next((s for s in sites if s.atom_index == changed[comp.index].reactant_atom), sites[0])
+            return comp, site
+        cands.append((comp, max(sites, key=lambda s: s.pka)))
+    if not cands:
+        return None, None
+    return max(cands, key=lambda cs: cs[1].pka)
+
+
+def _base_advice(pka_nuc: float) -> str:
+    if pka_nuc < 6.5:
+        return "pyridine (pKa 5.2), Et3N or aqueous NaHCO3"
+    return "Et3N (pKa 10.7) or DIPEA, or aqueous NaOH or K2CO3 in a biphasic (Schotten–Baumann) set-up"
+
+
+@rule(id="acid-scavenger-short", title="Too little base for the acid the reaction releases", severity="error")
+def acid_scavenger_short(ctx: Context):
+    """Count the protons an N-acylation or N-alkylation releases against the bases present.
+
+    What it flags
+        An acylation (acid chloride, sulfonyl chloride, chloroformate, carbamoyl chloride,
+        anhydride) or N-alkylation (alkyl halide or sulfonate) of an amine in which the acid
+        released (HX, a sulfonic or carboxylic acid), plus any acid brought in, is more than the
+        bases present can take up, so that part of the amine ends up as its unreactive salt.
+        The proton bookkeeping of ``chemcheck.acid_base`` gives the largest conversion reachable.
+        Without amounts one equivalent of each reactant and agent is assumed (and the finding is
+        a warning).
+
+    Why it matters
+        Each turnover releases one equivalent of acid. Without another base it protonates the
+        starting amine, which then cannot react: with one equivalent of amine the reaction stops
+        at 50 %. A base weaker than the amine (pyridine against an alkylamine) takes the acid only
+        as far as the equilibrium allows. Carboxylic acids from anhydrides are weaker than HCl,
+        but still protonate alkylamines almost completely.
+
+    Example
+        ``CCCCN.CC(=O)Cl>>CCCCNC(C)=O`` with one equivalent of each: at most 50 %.
+
+    Use instead
+        Add at least one equivalent of a base at least as strong as the amine (Et3N, DIPEA), or
+        use two equivalents of the amine, or run under Schotten–Baumann conditions with aqueous
+        NaOH or carbonate.
+
+    References
+        J. Clayden, N. Greeves, S. Warren, *Organic Chemistry*, 2nd ed., OUP 2012, ch. 10
+        (nucleophilic substitution at the carbonyl group; amide formation from acid chlorides).
+        C. A. G. N. Montalbetti, V. Falque, Tetrahedron 2005, 61, 10827 (amide bond formation).
+    """
+    r = acid_scavenger_short.rule
+    for elec, groups in electrophiles(ctx, set(ACID_RELEASING)):
+        nuc, site = _nucleophile(ctx, elec)
+        if nuc is None:
+            continue
+        if salt_info(ctx, nuc)[0]:
+            continue  # amine-salt-not-freed covers a salt used as the nucleophile
+        if ctx.reaction.products and not any(nb.reactant == nuc.index for nb in changed_nitrogens(ctx)):
+            continue  # the product drawn leaves this nitrogen untouched (C-acylation, O-acylation)
+        if groups[0].name in ALKYLATING and ctx.reaction.products:
+            changed = [nb for nb in changed_nitrogens(ctx) if nb.reactant == nuc.index]
+            if changed and changed[0].charge_after > 0:
+                continue  # drawn as the ammonium salt: the acid stays on the product
+        acid_name, acid_pka = released_acid(groups)
+        per = 2.0 if groups[0].name == "carbonyl_dihalide" else 1.0
+        n_nuc, a1 = amount_mmol(ctx, nuc)
+        n_e, a2 = amount_mmol(ctx, elec)
+        bases = bases_present(ctx, {nuc.index, elec.index})
+        brought = acids_brought_in(ctx, {nuc.index, elec.index})
+        protons = sum(m for _, _, m in brought)
+        assumed = a1 or a2 or any(b.assumed for b in bases)
+        x = max_conversion(
+            Acceptor("nucleophile", site.pka, n_nuc),
+            n_e,
+            [b.acceptor() for b in bases],
+            acid_per_turnover=per,
+            released_pka=acid_pka,
+            protons_present=protons,
+            nucleophile_per_turnover=per,
+        )
+        limit = min(n_e, n_nuc / per)
+        reach = x * n_e / limit if limit > 0 else 1.0
+        if reach >= 0.9:
+            continue
+        parts = [
+            f"At most {_pct(min(reach, 1.0))} conversion: the {acid_name} released by {elec.label} protonates the "
+            f"remaining {nuc.label} (pKa {site.pka:.1f}), which then cannot react."
+        ]
+        if acid_pka > 0:
+            k = site.pka - acid_pka
+            parts.append(
+                f"{acid_name[0].upper() + acid_name[1:]} (pKa {acid_pka:.1f}) is weaker than HCl but still protonates "
+                f"the amine: K ≈ 10^{k:.1f}."
+            )
+        if bases:
+            ref = n_e
+            strongest = max(bases, key=lambda b: b.pka)
+            eq = sum(b.mmol for b in bases if b.atom == strongest.atom and b.component.index == strongest.component.index) / ref
+            if strongest.pka < site.pka - 1.5:
+                parts.append(
+                    f"The strongest base present, {strongest.label} (pKa {strongest.pka:.1f}), is too weak to take the "
+                    f"proton from the protonated {nuc.label}."
+                )
+            else:
+                parts.append(f"The base present, {strongest.label}, is {eq:.2g} equiv: not enough.")
+        else:
+            parts.append("No other base is present.")
+        if brought:
+            parts.append("Acid brought in: " + ", ".join(f"{c.label}" for c, _, _ in brought) + ".")
+        if assumed:
+            parts.append("(Amounts not given for every component: 1 equiv assumed.)")
+        need = per + protons / max(n_e, 1e-9)
+        fix = (
+            f"Add at least {need + 0.1:.1f} equiv of a base at least as strong as {nuc.label}, such as "
+            f"{_base_advice(site.pka)}; or use {1 + per:.0f} equiv of {nuc.label}."
+        )
+        atoms = [(nuc.index, site.atom_index), (elec.index, groups[0].atoms[-1]), (elec.index, groups[0].centre)]
+        yield r.finding(" ".join(parts), atoms=atoms, fix=fix, severity="warning" if assumed else "error")
+
+
+# --------------------------------------------------------------------------- amine salts
+_SALT_NAMES = (
+    ("hydrogen_halide", {"Cl": "hydrochloride", "Br": "hydrobromide", "I": "hydroiodide"}),
+    ("perfluoro_acid", "trifluoroacetate"),
+    ("sulfonic_acid", "sulfonate salt"),
+)
+
+
+def _salt_name(ctx: Context, comp) -> str:
+    p = ctx.perception(comp)
+    for a in comp.mol.GetAtoms():
+        if a.GetFormalCharge() < 0 and a.GetDegree() == 0:
+            return {"Cl": "hydrochloride", "Br": "hydrobromide", "I": "hydroiodide"}.get(a.GetSymbol(), "salt")
+    if p.has("hydrogen_halide"):
+        g = [g for g in p.groups if g.name == "hydrogen_halide"][0]
+        return {"Cl": "hydrochloride", "Br": "hydrobromide", "I": "hydroiodide"}.get(comp.mol.GetAtomWithIdx(g.centre).GetSymbol(), "salt")
+    if p.has("perfluoro_acid") or any(a.GetSymbol() == "F" for a in comp.mol.GetAtoms()):
+        return "trifluoroacetate" if p.has("perfluoro_acid", "carboxylate") else "salt"
+    if p.has("sulfonic_acid") or any(a.GetSymbol() == "S" for a in comp.mol.GetAtoms()):
+        smi = comp.smiles
+        if "c1ccc(C)cc1" in smi or "Cc1ccc" in smi:
+            return "tosylate"
+        if "CS(=O)(=O)" in smi:
+            return "mesylate"
+        return "sulfate"
+    return "salt"
+
+
+@rule(id="amine-salt-not-freed", title="An amine salt is used without a base to free it", severity="error")
+def amine_salt_not_freed(ctx: Context):
+    """An amine weighed as its salt is the nucleophile, with too little base to free it.
+
+    What it flags
+        A reactant that is an amine salt (hydrochloride, hydrobromide, trifluoroacetate, sulfate,
+        tosylate, mesylate, or a drawn ammonium ion) used as the nucleophile with an
+        electrophile, without at least one extra equivalent of a base strong enough to take its
+        proton, on top of what the reaction's own acid needs.
+
+    Why it matters
+        A protonated nitrogen has no lone pair: it does not attack acid chlorides, alkyl halides
+        or carbonyls. Each equivalent of salt needs one equivalent of base just to become the
+        free amine; an acylation then needs a second for the HCl it releases.
+
+    Example
+        ``Cl.NCc1ccccc1`` (benzylamine hydrochloride) with acetyl chloride and 1 equiv of Et3N:
+        one equivalent frees the amine, none is left for the HCl formed.
+
+    Use instead
+        Add one more equivalent of Et3N or DIPEA (two in all for an acylation, one for a
+        condensation), or free-base the salt first (aqueous NaOH or K2CO3, extract, dry).
+
+    References
+        P. Wipf, "Handbook of reagents: amine salts" (common practice); J. Clayden, N. Greeves,
+        S. Warren, *Organic Chemistry*, 2nd ed., OUP 2012, ch. 8 (acidity, basicity and pKa).
+    """
+    r = amine_salt_not_freed.rule
+    rxn = ctx.reaction
+    for comp in rxn.reactants:
+        is_salt, sites = salt_info(ctx, comp)
+        if not is_salt or not sites:
+            continue
+        others = [c for c in rxn.reactants + rxn.agents if c.index != comp.index]
+        acyl = [c for c in others if ctx.perception(c).has(*ACYLATING)]
+        alkyl = [c for c in others if ctx.perception(c).has(*ALKYLATING)]
+        carbonyl = [c for c in others if ctx.perception(c).has("aldehyde", "ketone", "isocyanate", "dicarbonate")]
+        if not (acyl or alkyl or carbonyl):
+            continue
+        pka = max(s.pka for s in sites)
+        acid_need = 1.0 if (acyl or alkyl) else 0.0
+        elec = (acyl or alkyl or carbonyl)[0]
+        n_salt, a1 = amount_mmol(ctx, comp)
+        exclude = {comp.index, elec.index}
+        bases = bases_present(ctx, exclude)
+        strong = [b for b in bases if b.pka >= pka - 1.0]
+        weak = [b for b in bases if b.pka < pka - 1.0]
+        have = sum(b.mmol for b in strong) / n_salt if n_salt else 0.0
+        need = 1.0 + acid_need
+        if have + 0.05 >= need:
+            continue
+        assumed = a1 or any(b.assumed for b in bases)
+        salt = _salt_name(ctx, comp)
+        msg = (
+            f"{comp.label} is the {salt} of an amine (pKa {pka:.1f}): its nitrogen carries a proton and cannot react "
+            f"until a base takes it off. It needs {need:g} equiv of a base with a conjugate-acid pKa of about {pka - 1:.0f} "
+            f"or more (1 to free the amine"
+            + (", 1 for the acid the reaction releases" if acid_need else "")
+            + f"); {have:.2g} equiv present."
+        )
+        if weak:
+            w = max(weak, key=lambda b: b.pka)
+            msg += f" {w.label} (pKa {w.pka:.1f}) is too weak to free it."
+        if assumed:
+            msg += " (Amounts not given for every component: 1 equiv assumed.)"
+        atoms = [(comp.index, s.atom_index) for s in sites]
+        yield r.finding(
+            msg,
+            atoms=atoms,
+            fix=f"Add {need - have:.1f} more equiv of Et3N or DIPEA, or free-base {comp.label} first "
+            "(aqueous NaOH or K2CO3, extract into an organic solvent, dry).",
+            severity="warning" if assumed and strong else "error",
+        )
+
+
+# --------------------------------------------------------------------------- impossible bonds
+_NH_ACIDITY = {"sulfonamide": 10.0, "imide": 8.5, "amide": 17.0, "carbamate": 17.0, "urea": 18.0, "pyrrole_type": 17.0}
+# how strong a base (conjugate-acid pKa) makes the N-H reactive: sulfonamides and imides with
+# carbonates, amides with hydroxide in DMSO or stronger, pyrroles and indoles with carbonates in
+# DMF at best (common practice)
+_BASE_NEEDED = {"sulfonamide": 9.0, "imide": 8.0, "amide": 13.5, "carbamate": 13.5, "urea": 13.5, "pyrrole_type": 10.0}
+
+
+@rule(id="nitrogen-cannot-react-as-drawn", title="A nitrogen is drawn forming a bond it cannot form", severity="error")
+def nitrogen_cannot_react_as_drawn(ctx: Context):
+    """Compare each nitrogen of the reactants with the same nitrogen in the product.
+
+    What it flags
+        A product with a new bond to a nitrogen that cannot form it under the conditions drawn:
+        a tertiary amine drawn as a neutral amide or sulfonamide, a quaternary ammonium that
+        gains a bond, an amide, carbamate or sulfonamide nitrogen acylated or alkylated without
+        a base strong enough for its N–H, a pyrrole- or indole-type nitrogen as nucleophile under
+        neutral conditions, a nitro nitrogen. With atom maps the same atoms are compared; without
+        them each reactant is mapped onto the product by their maximum common substructure
+        (``chemcheck.changes``).
+
+    Why it matters
+        A neutral amide nitrogen has three bonds: a tertiary amine can only become one by
+        losing an alkyl group. Amide and carbamate N–H are weak acids (pKa about 17 in water)
+        and their lone pair is tied up by the carbonyl, so they need deprotonation before they
+        alkylate. Pyrrole and indole nitrogens keep their lone pair in the aromatic ring.
+
+    Example
+        ``CCN(CC)CC.CC(=O)Cl>>CCN(CC)C(C)=O``: triethylamine has no N–H to lose.
+
+    Use instead
+        Use the secondary amine for a tertiary amide. Deprotonate amides, carbamates, indoles and
+        pyrroles first (NaH, KOtBu, KOH in DMSO; Cs2CO3 in DMF for indoles and sulfonamides).
+
+    References
+        J. Clayden, N. Greeves, S. Warren, *Organic Chemistry*, 2nd ed., OUP 2012, ch. 8 and 29
+        (pKa of N–H acids; aromatic heterocycles). F. G. Bordwell, Acc. Chem. Res. 1988, 21, 456
+        (acidities in DMSO).
+    """
+    r = nitrogen_cannot_react_as_drawn.rule
+    comps = ctx.reaction.components
+    all_bases = bases_present(ctx, set())
+    strongest = max((b.pka for b in all_bases), default=None)
+    dmap_acyl = any(
+        any(s.kind == "pyridine_type" for s in ctx.perception(c).nitrogens) and c.kind == "catalyst"
+        for c in ctx.reaction.agents
+    ) and any(ctx.perception(c).has("dicarbonate", "anhydride") for c in ctx.reaction.reactants)
+    for nb in changed_nitrogens(ctx):
+        before, after = nb.kind_before, nb.kind_after
+        rc, pc = comps[nb.reactant], comps[nb.product]
+        atoms = [(rc.index, nb.reactant_atom), (pc.index, nb.product_atom)] + [(pc.index, a) for a in nb.partners]
+        if before == "ammonium":
+            continue  # a salt: amine-salt-not-freed speaks of it
+        if before == "tertiary_amine" and after in ("amide", "sulfonamide", "carbamate", "urea") and nb.charge_after == 0:
+            yield r.finding(
+                f"The tertiary amine nitrogen of {rc.label} is drawn as a neutral {after} in {pc.label}, but it has no "
+                "N–H to lose: it can at most form a charged acylammonium salt (which hydrolyses on workup).",
+                atoms=atoms,
+                fix="Start from the secondary amine for a tertiary amide or sulfonamide, or draw the product of the "
+                "amine that actually has an N–H.",
+            )
+        elif before == "quaternary_ammonium":
+            yield r.finding(
+                f"The quaternary ammonium nitrogen of {rc.label} has no lone pair and no N–H; it cannot form the new "
+                f"bond drawn in {pc.label}.",
+                atoms=atoms,
+                fix="Quaternary ammonium salts react at carbon (Hofmann elimination, substitution), not at nitrogen.",
+            )
+        elif before == "nitro":
+            yield r.finding(
+                f"The nitro nitrogen of {rc.label} is drawn forming a new bond in {pc.label}; nitro groups are not "
+                "nucleophilic.",
+                atoms=atoms,
+                fix="Reduce the nitro group to the amine first (H2/Pd-C, Fe/HCl, SnCl2), then form the bond.",
+            )
+        elif before in _BASE_NEEDED and nb.heavy_after > nb.heavy_before:
+            has_h = rc.mol.GetAtomWithIdx(nb.reactant_atom).GetTotalNumHs() > 0
+            need = _BASE_NEEDED[before]
+            if not has_h:
+                yield r.finding(
+                    f"The {_word(before)} nitrogen of {rc.label} has no N–H and no free lone pair: it cannot gain the "
+                    f"bond drawn in {pc.label}.",
+                    atoms=atoms,
+                    fix="Check the product: another atom is the one that reacts.",
+                )
+                continue
+            if dmap_acyl and before in ("amide", "carbamate", "imide", "sulfonamide"):
+                continue  # DMAP-catalysed acylation (N-Boc of amides and carbamates) is fine
+            if strongest is not None and strongest >= need:
+                continue
+            base_text = (
+                f"the strongest base present has a conjugate-acid pKa of {strongest:.1f}" if strongest is not None else "no base is present"
+            )
+            yield r.finding(
+                f"The {_word(before)} N–H of {rc.label} (pKa about {_NH_ACIDITY[before]:.0f}) is drawn reacting in "
+                f"{pc.label}, but {base_text}: without deprotonation this nitrogen is not nucleophilic.",
+                atoms=atoms,
+                fix="Deprotonate first: NaH or KOtBu in DMF or THF (amides, carbamates), Cs2CO3 or K2CO3 in DMF "
+                "(sulfonamides, imides, indoles).",
+            )
+
+
+# --------------------------------------------------------------------------- over-alkylation
+def _is_methylating(ctx: Context, comp) -> bool:
+    for g in ctx.perception(comp).groups:
+        if g.name in ALKYLATING:
+            c = comp.mol.GetAtomWithIdx(g.centre)
+            if c.GetTotalNumHs() == 3:
+                return True
+    return False
+
+
+def _is_activated_alkyl(ctx: Context, comp) -> bool:
+    for g in ctx.perception(comp).groups:
+        if g.name in ALKYLATING:
+            c = comp.mol.GetAtomWithIdx(g.centre)
+            for n in c.GetNeighbors():
+                if n.GetIsAromatic() or any(b.GetBondTypeAsDouble() == 2 for b in n.GetBonds()):
+                    return True
+    return False
+
+
+@rule(id="overalkylation-risk", title="Direct N-alkylation gives mixtures", severity="warning")
+def overalkylation_risk(ctx: Context):
+    """A primary or secondary amine with an alkyl halide or sulfonate, drawn as one alkylation.
+
+    What it flags
+        A primary amine (or ammonia) and an alkylating agent drawn as, or expected to give, a
+        single alkylation; a secondary amine likewise when the agent is a methylating, benzylic
+        or allylic one or is in excess. Not when the amine is in large excess (3 equiv or more)
+        or when the drawn product is the exhaustively alkylated ammonium salt.
+
+    Why it matters
+        Each alkyl group makes the nitrogen more electron-rich: the secondary amine formed is at
+        least as nucleophilic as the primary amine it came from, so the alkyl halide is shared
+        between them and a mixture of mono-, di- and trialkylated amines and the quaternary salt
+        results. With an excess of a methylating agent the quaternary ammonium salt is the
+        expected product (exhaustive methylation).
+
+    Example
+        ``CCCCN.BrCc1ccccc1>>CCCCNCc1ccccc1``.
+
+    Use instead
+        Reductive amination (the aldehyde or ketone with NaBH(OAc)3 or NaBH3CN), a large excess of
+        the amine (5 equiv or more), or a protecting-group route (a sulfonamide or a Boc
+        carbamate, alkylated after deprotonation, then deprotected).
+
+    References
+        J. Clayden, N. Greeves, S. Warren, *Organic Chemistry*, 2nd ed., OUP 2012, ch. 15
+        (nucleophilic substitution; alkylation of amines). A. F. Abdel-Magid et al., J. Org.
+        Chem. 1996, 61, 3849 (reductive amination with sodium triacetoxyborohydride).
+    """
+    r = overalkylation_risk.rule
+    rxn = ctx.reaction
+    for elec, groups in electrophiles(ctx, ALKYLATING):
+        for comp in rxn.reactants:
+            if comp.index == elec.index or salt_info(ctx, comp)[0]:
+                continue
+            sites = [s for s in ctx.sites(comp) if s.kind in ("primary_amine", "ammonia", "secondary_amine", "aryl_amine") and s.pka is not None]
+            if not sites:
+                continue
+            site = max(sites, key=lambda s: s.pka)
+            atom = comp.mol.GetAtomWithIdx(site.atom_index)
+            h = atom.GetTotalNumHs()
+            if h == 0:
+                continue
+            n_amine, a1 = amount_mmol(ctx, comp)
+            n_e, a2 = amount_mmol(ctx, elec)
+            ratio = n_e / n_amine if n_amine else 1.0
+            if not a1 and not a2 and n_amine >= 3 * n_e:
+                continue
+            secondary = h == 1 and site.kind != "ammonia"
+            methyl = _is_methylating(ctx, elec)
+            if secondary and not (methyl or _is_activated_alkyl(ctx, elec) or ratio >= 1.5):
+                continue
+            changed = [nb for nb in changed_nitrogens(ctx) if nb.reactant == comp.index and nb.reactant_atom == site.atom_index]
+            if changed:
+                nb = changed[0]
+                added = nb.heavy_after - nb.heavy_before
+                if nb.kind_after == "quaternary_ammonium" or (added >= h + (0 if site.kind == "ammonia" else 1) - 0):
+                    if nb.kind_after == "quaternary_ammonium":
+                        continue  # exhaustive alkylation drawn: intended
+                if added > 1:
+                    continue
+            msg = (
+                f"{comp.label} is alkylated by {elec.label}, but the {'tertiary' if secondary else 'secondary'} amine "
+                f"formed is at least as nucleophilic as the starting {_word(site.kind)}, so the alkylating agent is "
+                "shared between them: expect a mixture of mono- and polyalkylated amines and the quaternary salt."
+            )
+            if methyl and ratio >= 2:
+                msg += (
+                    f" With {ratio:.2g} equiv of the methylating agent the quaternary ammonium salt is the expected "
+                    "product (exhaustive methylation)."
+                )
+            atoms = [(comp.index, site.atom_index), (elec.index, groups[0].centre)]
+            yield r.finding(
+                msg,
+                atoms=atoms,
+                fix="For one alkyl group use reductive amination (the aldehyde or ketone with NaBH(OAc)3), a large "
+                "excess of the amine (5 equiv or more), or a protecting-group route (sulfonamide or Boc, alkylate, "
+                "deprotect).",
+            )
+
+
+# --------------------------------------------------------------------------- proton transfer
+def _parent_key(mol):
+    from rdkit import Chem
+    from rdkit.Chem.MolStandardize import rdMolStandardize
+
+    from .. import _rdlog
+
+    with _rdlog.captured():
+        try:
+            neutral = rdMolStandardize.Uncharger().uncharge(Chem.Mol(mol))
+            return Chem.MolToInchiKey(neutral)[:14]
+        except Exception:
+            return None
+
+
+def _fragments(comp):
+    from rdkit import Chem
+
+    return list(Chem.GetMolFrags(comp.mol, asMols=True, sanitizeFrags=True))
+
+
+def _h_count(mol) -> int:
+    return sum(a.GetTotalNumHs() for a in mol.GetAtoms())
+
+
+def _acid_pka_of(ctx, frag):
+    """pKa of a fragment acting as an acid (HA)."""
+    from rdkit import Chem
+
+    from ..basicity import basic_sites
+    from ..basicity.acids import acid_pka
+    from ..perceive import reactive_groups
+
+    smi = Chem.MolToSmiles(frag)
+    a = acid_pka(smi)
+    if a is not None:
+        return a.pka, a.name
+    sites = [s for s in basic_sites(frag) if s.kind == "ammonium" and s.pka is not None]
+    if sites:
+        return max(s.pka for s in sites), "the ammonium ion"
+    names = {g.name for g in reactive_groups(frag)}
+    if "sulfonic_acid" in names:
+        return -2.0, "a sulfonic acid"
+    if "perfluoro_acid" in names:
+        return 0.5, "a perfluorinated acid"
+    if "carboxylic_acid" in names:
+        return 4.5, "a carboxylic acid (typical value)"
+    if "phenol" in names:
+        return 10.0, "a phenol (typical value)"
+    if "alcohol" in names:
+        return 16.0, "an alcohol (typical value)"
+    return None, None
+
+
+def _base_pka_of(frag):
+    """pKa of the conjugate acid of a fragment acting as a base (B)."""
+    from rdkit import Chem
+
+    from ..basicity import basic_sites
+    from ..basicity.acids import conjugate_acid_pka
+    from ..perceive import reactive_groups
+
+    smi = Chem.MolToSmiles(frag)
+    c = conjugate_acid_pka(smi)
+    if c is not None:
+        return c.pka
+    sites = [s for s in basic_sites(frag) if s.pka is not None and s.kind != "ammonium"]
+    if sites:
+        return max(s.pka for s in sites)
+    names = {g.name for g in reactive_groups(frag)}
+    if "carboxylate" in names:
+        return 4.5
+    if "phenoxide" in names:
+        return 10.0
+    if "alkoxide" in names:
+        return 16.0
+    return None
+
+
+@rule(id="uphill-proton-transfer", title="A drawn proton transfer runs uphill", severity="warning")
+def uphill_proton_transfer(ctx: Context):
+    """An acid–base reaction drawn in the direction its equilibrium does not favour.
+
+    What it flags
+        A drawn reaction whose only change is a proton moving from an acid HA to a base B,
+        with K = 10^(pKa(BH+) − pKa(HA)) below 0.1 (water-scale pKa values). Favourable
+        transfers pass silently.
+
+    Why it matters
+        A proton goes to the stronger base. Drawing it the other way (freeing an alkylamine
+        from its salt with sodium bicarbonate, protonating pyridine with a phenol) describes a
+        step that mostly does not happen: the salt is not formed or the amine is not freed.
+
+    Example
+        ``CCCC[NH3+].[Cl-].[Na+].OC([O-])=O>>CCCCN.[Na+].[Cl-].OC(O)=O``:
+        K = 10^(6.35 − 10.6) ≈ 6e-5.
+
+    Use instead
+        Choose a base whose conjugate acid has a higher pKa than the acid (NaOH, K2CO3 to free an
+        alkylamine), or a stronger acid to form the salt.
+
+    References
+        Henderson–Hasselbalch and the pKa rule for proton transfers: J. Clayden, N. Greeves,
+        S. Warren, *Organic Chemistry*, 2nd ed., OUP 2012, ch. 8. pKa values: CRC Handbook.
+    """
+    r = uphill_proton_transfer.rule
+    rxn = ctx.reaction
+    if not rxn.products:
+        return
+    spectators = {"[Na+]", "[K+]", "[Li+]", "[Cs+]", "[Cl-]", "[Br-]", "[I-]"}
+    from rdkit import Chem
+
+    def frags(comps):
+        out = []
+        for c in comps:
+            if c.sanitization != "full":
+                return None
+            for f in _fragments(c):
+                smi = Chem.MolToSmiles(f)
+                if smi in spectators:
+                    continue
+                out.append((c, f, _parent_key(f)))
+        return out
+
+    left = frags(rxn.reactants)
+    right = frags(rxn.products)
+    if not left or not right:
+        return
+    if sorted(k for _, _, k in left) != sorted(k for _, _, k in right):
+        return
+    acid = base = None
+    for c, f, k in left:
+        match = next((pf for _, pf, pk in right if pk == k), None)
+        if match is None:
+            continue
+        dh = _h_count(match) - _h_count(f)
+        if dh < 0 and acid is None:
+            acid = (c, f)
+        elif dh > 0 and base is None:
+            base = (c, f)
+    if acid is None or base is None:
+        return
+    pka_ha, acid_name = _acid_pka_of(ctx, acid[1])
+    pka_bh = _base_pka_of(base[1])
+    if pka_ha is None or pka_bh is None:
+        return
+    k = 10 ** (pka_bh - pka_ha)
+    if k >= 0.1:
+        return
+    yield r.finding(
+        f"The proton transfer drawn runs uphill: {acid[0].label} (pKa {pka_ha:.1f}) is a weaker acid than the "
+        f"conjugate acid of {base[0].label} (pKa {pka_bh:.1f}), so K = 10^({pka_bh:.1f} − {pka_ha:.1f}) = {k:.1e}; "
+        "at equilibrium the starting materials dominate.",
+        atoms=[],
+        fix=f"Use a base whose conjugate acid has a pKa above {pka_ha + 1:.0f} (for example NaOH, pKa 14, or "
+        f"K2CO3, pKa 10.3), or a stronger acid.",
+    )
+
+
+# --------------------------------------------------------------------------- solvolysis
+_SOLVOLYSIS_GROUPS = {
+    "acid_halide": "acid chloride", "anhydride": "anhydride", "sulfonyl_halide": "sulfonyl chloride",
+    "chloroformate": "chloroformate", "isocyanate": "isocyanate", "carbamoyl_chloride": "carbamoyl chloride",
+    "carbonyl_dihalide": "phosgene-type reagent", "sulfonic_anhydride": "sulfonic anhydride",
+    "inorganic_acid_chloride": "acid chloride",
+}
+_WATER_REACTIVE_LA = {"Al", "Ti", "Sn", "B", "Si", "Fe", "Zr", "Hf", "Sc", "Bi", "Ga", "In"}
+
+
+@rule(id="reagent-solvolysis", title="A protic solvent or reagent destroys the electrophile", severity="warning")
+def reagent_solvolysis(ctx: Context):
+    """Acylating agents and water-reactive Lewis acids together with water or an alcohol.
+
+    What it flags
+        An acid chloride, anhydride, sulfonyl chloride, chloroformate, isocyanate or
+        water-reactive Lewis acid in the same reaction as water or an alcohol that is not the
+        intended nucleophile. A biphasic aqueous-base procedure of the Schotten–Baumann type
+        (an acylating agent, an amine and aqueous hydroxide or carbonate) is a legitimate
+        exception and gets an info note instead.
+
+    Why it matters
+        Water and alcohols attack the same carbonyl (or the Lewis acid) that the amine should:
+        the reagent is consumed, HCl or a carboxylic acid is released, and esters or acids form as
+        by-products. Lewis acids such as AlCl3 and TiCl4 react violently with water, releasing HCl.
+
+    Example
+        ``CCCCN.CC(=O)Cl>CCN(CC)CC.CO>CCCCNC(C)=O``: methanol competes with the amine.
+
+    Use instead
+        Use a dry aprotic solvent (DCM, THF, MeCN, toluene), dry the reagents, and add the
+        electrophile to the amine and the base. For an aqueous route use Schotten–Baumann
+        conditions: the acid chloride in DCM or ether, aqueous NaOH or Na2CO3, cold, vigorous
+        stirring, slow addition.
+
+    References
+        C. Schotten, Ber. 1884, 17, 2544; E. Baumann, Ber. 1886, 19, 3218. W. L. F. Armarego,
+        *Purification of Laboratory Chemicals*, 8th ed., 2017 (drying of solvents).
+    """
+    r = reagent_solvolysis.rule
+    rxn = ctx.reaction
+    reactive = []
+    for comp in rxn.reactants + rxn.agents:
+        p = ctx.perception(comp)
+        for g in p.groups:
+            if g.name in _SOLVOLYSIS_GROUPS:
+                reactive.append((comp, g, _SOLVOLYSIS_GROUPS[g.name]))
+                break
+            if g.name == "lewis_acid" and g.detail in _WATER_REACTIVE_LA:
+                reactive.append((comp, g, "water-reactive Lewis acid"))
+                break
+    if not reactive:
+        return
+    amine_nuc = [c for c in rxn.reactants if nucleophile_sites(ctx, c)]
+    protic = []
+    for comp in rxn.reactants + rxn.agents:
+        p = ctx.perception(comp)
+        if not p.has("water", "alcohol"):
+            continue
+        if comp.role == "reactant" and (nucleophile_sites(ctx, comp) or not amine_nuc):
+            continue  # the alcohol (or amino alcohol) is the intended nucleophile
+        protic.append(comp)
+    if not protic:
+        return
+    inorganic_base = any(
+        ctx.perception(c).has("hydroxide", "carbonate") for c in rxn.reactants + rxn.agents
+    )
+    for comp, g, what in reactive:
+        for pc in protic:
+            water = ctx.perception(pc).has("water")
+            if what != "water-reactive Lewis acid" and what != "isocyanate" and water and inorganic_base and amine_nuc:
+                yield r.finding(
+                    f"Schotten–Baumann conditions: {comp.label} with {amine_nuc[0].label} and aqueous base. The amine "
+                    f"outcompetes water for the {what} when it is added slowly, cold and with vigorous stirring; some "
+                    "hydrolysis is expected, so use a small excess of it.",
+                    atoms=[(comp.index, g.centre)],
+                    fix=f"Add {comp.label} slowly to the cooled, well-stirred two-phase mixture; use 1.1–1.5 equiv.",
+                    severity="info",
+                )
+                continue
+            word = "water" if water else "the alcohol"
+            if what in ("anhydride",) and amine_nuc:
+                yield r.finding(
+                    f"{comp.label} with {pc.label}: anhydrides react with {word} only slowly, and "
+                    f"{amine_nuc[0].label} outcompetes it; expect a little hydrolysis and use a small excess.",
+                    atoms=[(comp.index, g.centre)],
+                    fix=f"Use 1.1–1.5 equiv of {comp.label}, or a dry aprotic solvent.",
+                    severity="info",
+                )
+                continue
+            if what == "water-reactive Lewis acid":
+                msg = (
+                    f"{comp.label} reacts with {pc.label}: {word} destroys the Lewis acid (exothermically, "
+                    "releasing HCl or HF) before it can act."
+                )
+            else:
+                target = amine_nuc[0].label if amine_nuc else "the intended nucleophile"
+                msg = (
+                    f"{comp.label} is an {what} and reacts with {pc.label}: {word} competes with {target} "
+                    f"and consumes the {what}"
+                    + (", releasing acid." if what != "isocyanate" else " (a carbamate or, with water, an amine and CO2).")
+                )
+            yield r.finding(
+                msg,
+                atoms=[(comp.index, g.centre)] + [(pc.index, a.GetIdx()) for a in pc.mol.GetAtoms() if a.GetAtomicNum() == 8][:1],
+                fix="Use a dry aprotic solvent (DCM, THF, MeCN, toluene) and dry reagents; for an aqueous acylation "
+                "use Schotten–Baumann conditions (aqueous NaOH or Na2CO3, cold, vigorous stirring).",
+            )
+
+
+# --------------------------------------------------------------------------- hazards
+_HAZARDS = (
+    (
+        "alkylating",
+        "Alkylating agent ({names}): methyl iodide, dimethyl sulfate, methyl triflate and benzyl halides are toxic, "
+        "probable carcinogens and (benzyl halides) lachrymators; handle them in a fume hood with suitable gloves and "
+        "quench the excess (e.g. with aqueous ammonia or an amine).",
+    ),
+    (
+        "acid_chloride",
+        "Acid chloride or similar ({names}): corrosive, reacts with moisture and with amines releasing HCl; the "
+        "reaction with an amine is strongly exothermic, so add it slowly with cooling. Phosgene-type reagents are "
+        "highly toxic gases or their precursors.",
+    ),
+    (
+        "lewis_acid",
+        "Water-reactive Lewis acid ({names}): reacts violently with water and moist air, releasing HCl or HF; weigh "
+        "it dry, add it in portions, and quench slowly into ice.",
+    ),
+    (
+        "diazonium",
+        "Diazonium salt ({names}): keep it cold (0–5 °C), use it in solution straight away and never isolate it dry; "
+        "dry diazonium salts can detonate.",
+    ),
+    (
+        "azide",
+        "Azide ({names}): sodium azide is highly toxic; azides with acid give toxic, explosive HN3, with heavy "
+        "metals and with dichloromethane explosive compounds; low-molecular-weight organic azides are explosive.",
+    ),
+    (
+        "strong_acid",
+        "Strong acid ({names}): corrosive; mixing with amines and bases is exothermic; add the acid to the other "
+        "components slowly with cooling.",
+    ),
+    (
+        "oxidiser",
+        "Oxidiser or nitrating agent ({names}): keep away from organic solvents and reductants; nitrations are "
+        "strongly exothermic and can run away; control the temperature and the addition rate.",
+    ),
+    (
+        "hydride",
+        "Hydride reagent ({names}): reacts with water and acids releasing hydrogen (flammable); cyanoborohydride "
+        "releases HCN with acid; quench slowly under a fume hood.",
+    ),
+)
+
+
+def _hazard_classes(ctx: Context, comp) -> set[str]:
+    p = ctx.perception(comp)
+    out = set()
+    for g in p.groups:
+        if g.name in ALKYLATING:
+            c = comp.mol.GetAtomWithIdx(g.centre)
+            if c.GetTotalNumHs() == 3 or _is_activated_alkyl(ctx, comp) or g.name == "alkyl_sulfonate":
+                out.add("alkylating")
+        elif g.name in ("acid_halide", "sulfonyl_halide", "chloroformate", "carbamoyl_chloride", "carbonyl_dihalide", "inorganic_acid_chloride", "sulfonic_anhydride"):
+            out.add("acid_chloride")
+        elif g.name == "lewis_acid" and g.detail in _WATER_REACTIVE_LA:
+            out.add("lewis_acid")
+        elif g.name == "diazonium":
+            out.add("diazonium")
+        elif g.name == "azide":
+            out.add("azide")
+        elif g.name in ("hydrogen_halide", "sulfonic_acid", "perfluoro_acid", "nitric_acid"):
+            out.add("strong_acid")
+        elif g.name in ("peroxide", "metal_oxo_oxidant", "nitrating_agent"):
+            out.add("oxidiser")
+        elif g.name in ("boron_hydride", "aluminium_hydride", "hydride_ion"):
+            out.add("hydride")
+    return out
+
+
+@rule(id="hazard-caution", title="Hazardous reagent: usual cautions", severity="info")
+def hazard_caution(ctx: Context):
+    """One caution per class of hazardous reagent present.
+
+    What it flags
+        Alkylating agents (methyl iodide, dimethyl sulfate, methyl triflate, benzyl halides),
+        acid chlorides and the HCl they release (and the exotherm of their reaction with
+        amines), water-reactive Lewis acids, diazonium salts, azides, strong acids, oxidisers and
+        nitrating agents, and hydride reagents. One note per class, naming the components.
+
+    Why it matters
+        These are the reagents behind most bench incidents in amine chemistry: exposure to
+        alkylating agents, runaway acylations, violent quenches, and detonations of diazonium
+        salts and azides.
+
+    Example
+        ``CCCCN.CI>>CCCCNC``: methyl iodide is a toxic alkylating agent.
+
+    Use instead
+        Follow the usual precautions in the note; every note ends by deferring to the SDS, local
+        regulations and the institution's safety review.
+
+    References
+        *Prudent Practices in the Laboratory*, National Research Council, 2011. Bretherick's
+        *Handbook of Reactive Chemical Hazards*, 8th ed., 2017.
+    """
+    r = hazard_caution.rule
+    found: dict[str, list] = {}
+    for comp in ctx.reaction.reactants + ctx.reaction.agents:
+        for cls in _hazard_classes(ctx, comp):
+            found.setdefault(cls, []).append(comp)
+    for cls, text in _HAZARDS:
+        comps = found.get(cls)
+        if not comps:
+            continue
+        names = ", ".join(dict.fromkeys(c.label for c in comps))
+        yield r.finding(text.format(names=names) + " " + SAFETY, atoms=[], fix=SAFETY)
