@@ -52,7 +52,34 @@ def test_bad_amount_option():
 
 
 def test_fail_on():
-    assert run("check", "CCN.CC(=O)Cl>>CCNC(C)=O", "--fail-on", "warning").returncode == 0
+    # one equivalent of amine and no base: a warning (acid-scavenger-short, amounts assumed)
+    assert run("check", "CCN.CC(=O)Cl>>CCNC(C)=O", "--fail-on", "warning").returncode == 1
+    assert run("check", "CCN.CC(=O)Cl>>CCNC(C)=O", "--fail-on", "error").returncode == 0
+    assert run("check", "CCN.CC(=O)Cl>Et3N>CCNC(C)=O", "--fail-on", "warning").returncode == 0
+
+
+def test_pka_command():
+    proc = run("pka", "CN(C)c1ccncc1")
+    assert proc.returncode == 0
+    assert "pyridine_type" in proc.stdout and "first proton on atom 7" in proc.stdout
+    data = json.loads(run("pka", "--json", "C1CNCCN1").stdout)
+    assert {d["kind"] for d in data} == {"secondary_amine"}
+
+
+def test_scale_command():
+    proc = run(
+        "scale", "NCc1ccccc1.CC(=O)Cl>Et3N.DCM>CC(=O)NCc1ccccc1",
+        "-a", "NCc1ccccc1=1.07 g", "-a", "CC(=O)Cl=0.78 mL", "-a", "Et3N=2.09 mL", "-a", "DCM=10 mL",
+        "--factor", "10",
+    )
+    assert proc.returncode == 0, proc.stderr
+    assert "10.7 g" in proc.stdout and "calorimetry" in proc.stdout
+
+
+def test_smiles_keys_with_equals_signs():
+    proc = run("check", "CCN.CC(=O)Cl>Et3N>CCNC(C)=O", "--amount", "CC(=O)Cl=1.0 mmol", "--json")
+    assert proc.returncode == 0, proc.stderr
+    assert json.loads(proc.stdout)["input"]["amounts"] == {"CC(=O)Cl": "1.0 mmol"}
 
 
 def test_console_script_entry_point_is_declared():
