@@ -31,7 +31,30 @@ __all__ = [
     "AmountError",
     "LimitError",
     "MIME_TYPE",
+    "pad",
+    "view3d",
 ]
+
+
+def pad(reaction: str = "", amounts: dict[str, str] | None = None):
+    """A live check pad (ipywidgets) for a reaction and its amounts."""
+    from .display.pad import pad as _pad
+
+    return _pad(reaction, amounts)
+
+
+def view3d(report_or_smiles, component=0):
+    """A 3D view of one component, flagged atoms highlighted (3Dmol.js, served locally)."""
+    from .display.threed import view3d as _view3d
+
+    return _view3d(report_or_smiles, component)
+
+
+def load_ipython_extension(ipython):
+    """``%load_ext chemcheck`` registers the ``%%chemcheck`` cell magic."""
+    from .magic import load_ipython_extension as _load
+
+    _load(ipython)
 
 
 def _jupyter_labextension_paths():

@@ -4,6 +4,7 @@ import type { IRenderMime } from '@jupyterlab/rendermime-interfaces';
 import { Widget } from '@lumino/widgets';
 
 import { el } from './dom';
+import { MOL3D_MIME, mol3dFactory } from './mol3d';
 import { isReport, renderReport } from './render';
 
 export const MIME_TYPE = 'application/vnd.chemcheck.report+json';
@@ -35,7 +36,7 @@ export const rendererFactory: IRenderMime.IRendererFactory = {
   createRenderer: options => new ReportView(options)
 };
 
-const extension: IRenderMime.IExtension = {
+const reportExtension: IRenderMime.IExtension = {
   id: 'chemcheck-jupyterlab:report-renderer',
   description: 'Renders chemcheck reaction reports',
   rendererFactory,
@@ -43,4 +44,12 @@ const extension: IRenderMime.IExtension = {
   dataType: 'json'
 };
 
-export default extension;
+const mol3dExtension: IRenderMime.IExtension = {
+  id: 'chemcheck-jupyterlab:mol3d-renderer',
+  description: `Renders 3D views of molecules (${MOL3D_MIME}) with a local 3Dmol.js`,
+  rendererFactory: mol3dFactory,
+  rank: 0,
+  dataType: 'json'
+};
+
+export default [reportExtension, mol3dExtension];

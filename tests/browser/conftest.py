@@ -161,7 +161,7 @@ async () => {
 
 
 def open_notebook(page, lab: Lab, name: str, *, wait_kernel: bool = True):
-    page.goto(f"{lab.url}/lab/tree/{name}")
+    page.goto(f"{lab.url}/lab/tree/{name}?reset")
     page.wait_for_selector(".jp-Notebook", timeout=60_000)
     if wait_kernel:
         page.wait_for_function(KERNEL_READY, timeout=90_000, polling=250)

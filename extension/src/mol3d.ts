@@ -1,0 +1,96 @@
+// 3D view of a component (application/vnd.chemcheck.mol3d+json), drawn with 3Dmol.js loaded
+// from this labextension's own static folder: no CDN, works offline.
+
+import { PageConfig, URLExt } from '@jupyterlab/coreutils';
+import type { IRenderMime } from '@jupyterlab/rendermime-interfaces';
+import { Widget } from '@lumino/widgets';
+
+import { el } from './dom';
+
+export const MOL3D_MIME = 'application/vnd.chemcheck.mol3d+json';
+const SCRIPT = 'lab/extensions/chemcheck-jupyterlab/static/3Dmol-min.js';
+
+interface Mol3DPayload {
+  label: string;
+  molblock: string | null;
+  highlights: Array<{ atom: number; color: string }>;
+}
+
+type Viewer3D = {
+  addModel: (data: string, format: string) => unknown;
+  setStyle: (sel: Record<string, unknown>, style: Record<string, unknown>) => void;
+  zoomTo: () => void;
+  render: () => void;
+  resize: () => void;
+};
+
+let loading: Promise<unknown> | null = null;
+
+/** Load 3Dmol.js once, from the labextension's static folder. */
+export function load3Dmol(): Promise<unknown> {
+  const w = window as unknown as Record<string, unknown>;
+  if (w.$3Dmol) {
+    return Promise.resolve(w.$3Dmol);
+  }
+  if (!loading) {
+    loading = new Promise((resolve, reject) => {
+      const s = document.createElement('script');
+      s.src = URLExt.join(PageConfig.getBaseUrl(), SCRIPT);
+      s.async = true;
+      s.onload = () => resolve(w.$3Dmol);
+      s.onerror = () => {
+        loading = null;
+        reject(new Error('3Dmol.js could not be loaded from the chemcheck extension'));
+      };
+      document.head.appendChild(s);
+    });
+  }
+  return loading;
+}
+
+export class Mol3DView extends Widget implements IRenderMime.IRenderer {
+  constructor(options: IRenderMime.IRendererOptions) {
+    super();
+    this._mimeType = options.mimeType;
+    this.addClass('cc-mol3d');
+  }
+
+  async renderModel(model: IRenderMime.IMimeModel): Promise<void> {
+    const data = model.data[this._mimeType] as unknown as Mol3DPayload;
+    this.node.replaceChildren();
+    const caption = el('div', 'cc-mol3d-caption', `3D: ${data?.label ?? ''}`);
+    const stage = el('div', 'cc-mol3d-stage');
+    stage.style.width = '420px';
+    stage.style.height = '320px';
+    stage.style.position = 'relative';
+    this.node.appendChild(caption);
+    this.node.appendChild(stage);
+    if (!data || typeof data.molblock !== 'string') {
+      caption.textContent = 'No 3D coordinates for this component.';
+      return;
+    }
+    try {
+      const lib = (await load3Dmol()) as { createViewer: (n: HTMLElement, o: Record<string, unknown>) => Viewer3D };
+      const viewer = lib.createViewer(stage, { backgroundColor: 'white' });
+      viewer.addModel(data.molblock, 'sdf');
+      viewer.setStyle({}, { stick: { radius: 0.15 }, sphere: { scale: 0.22 } });
+      for (const h of data.highlights ?? []) {
+        if (typeof h.atom === 'number' && /^#[0-9a-fA-F]{6}$/.test(h.color)) {
+          viewer.setStyle({ index: h.atom }, { stick: { radius: 0.2, color: h.color }, sphere: { scale: 0.45, color: h.color } });
+        }
+      }
+      viewer.zoomTo();
+      viewer.render();
+    } catch (err) {
+      caption.textContent = `3D view unavailable: ${(err as Error).message}`;
+    }
+  }
+
+  private _mimeType: string;
+}
+
+export const mol3dFactory: IRenderMime.IRendererFactory = {
+  safe: true,
+  mimeTypes: [MOL3D_MIME],
+  createRenderer: options => new Mol3DView(options)
+};

@@ -1,0 +1,83 @@
+"""The check pad, the 3D view and a recorded report, in JupyterLab in real Chromium."""
+
+import json
+
+import pytest
+
+import chemcheck
+
+from .conftest import code_cell, open_notebook, run_all_cells, save_notebook
+from .png import colour_stats
+
+pytestmark = pytest.mark.browser
+
+
+def test_pad_renders_and_follows_typing(lab, page):
+    lab.write_notebook(
+        "pad.ipynb",
+        [code_cell("import chemcheck\np = chemcheck.pad('CCCCN.CC(=O)Cl>>CCCCNC(C)=O')\np", cell_id="pad")],
+    )
+    open_notebook(page, lab, "pad.ipynb")
+    run_all_cells(page)
+    report = page.locator(".cc-pad .cc-report")
+    report.first.wait_for(timeout=60_000)
+    page.wait_for_selector('.cc-pad .cc-finding[data-rule="acid-scavenger-short"]', timeout=30_000)
+    box = page.locator(".cc-pad-reaction input")
+    box.fill("CCCCN.CC(=O)Cl>Et3N>CCCCNC(C)=O")
+    page.wait_for_function(
+        "() => document.querySelector('.cc-pad .cc-report') && "
+        "!document.querySelector('.cc-pad .cc-finding[data-rule=\"acid-scavenger-short\"]') && "
+        "document.querySelector('.cc-pad .cc-title').textContent.includes('Et3N')",
+        timeout=30_000,
+    )
+    # bad input: the error shows inline and the text stays as typed
+    box.fill("CCCCN.NCc1ccccc>>C")
+    page.wait_for_selector(".cc-pad-status .cc-pad-error", timeout=30_000)
+    assert "ring closure 1 not closed" in page.locator(".cc-pad-status").inner_text()
+    assert box.input_value() == "CCCCN.NCc1ccccc>>C"
+    assert page.page_errors == []
+
+
+def test_3d_view_draws_pixels(lab, page):
+    lab.write_notebook("three.ipynb", [code_cell("import chemcheck\nchemcheck.view3d('Nc1ccc(C(C)=O)cc1')")])
+    open_notebook(page, lab, "three.ipynb")
+    run_all_cells(page)
+    canvas = page.wait_for_selector(".cc-mol3d-stage canvas", timeout=60_000)
+    page.wait_for_timeout(1500)  # let WebGL finish its first frame
+    shot = page.locator(".cc-mol3d-stage").screenshot()
+    colours, drawn = colour_stats(shot)
+    assert colours > 20 and drawn > 0.01, (colours, drawn)
+    assert canvas.evaluate("c => c.width > 0 && c.height > 0")
+    # the library came from the extension's own static folder, not a CDN
+    srcs = page.evaluate("() => [...document.scripts].map(s => s.src).filter(s => s.includes('3Dmol'))")
+    assert srcs and all("/lab/extensions/chemcheck-jupyterlab/static/" in s for s in srcs)
+
+
+def test_recorded_report_renders_from_the_file_alone(lab, page):
+    lab.write_notebook(
+        "record.ipynb",
+        [code_cell("import chemcheck\np = chemcheck.pad('CCCCN.CC(=O)Cl>>CCCCNC(C)=O')\np", cell_id="rec")],
+    )
+    open_notebook(page, lab, "record.ipynb")
+    run_all_cells(page)
+    page.wait_for_selector(".cc-pad .cc-report", timeout=60_000)
+    page.locator(".cc-pad-record").click()
+    # the record is an output of the cell, outside the widget
+    page.wait_for_function(
+        "() => [...document.querySelectorAll('.jp-OutputArea-output .cc-report')]"
+        ".some(n => !n.closest('.cc-pad'))",
+        timeout=30_000,
+    )
+    save_notebook(page)
+    data = json.loads((lab.root / "record.ipynb").read_text())
+    outputs = data["cells"][0]["outputs"]
+    recorded = [o for o in outputs if chemcheck.MIME_TYPE in o.get("data", {})]
+    assert recorded, "the recorded check is saved in the notebook file"
+    assert recorded[0]["data"][chemcheck.MIME_TYPE]["input"]["reaction"] == "CCCCN.CC(=O)Cl>>CCCCNC(C)=O"
+    # reopen without running anything: the report renders from the file
+    page.evaluate("window.jupyterapp.commands.execute('kernelmenu:shutdown')")
+    page.reload()
+    page.wait_for_selector(".jp-Notebook", timeout=60_000)
+    page.wait_for_selector(".jp-OutputArea-output .cc-report", timeout=60_000)
+    text = page.locator(".jp-OutputArea-output .cc-report").first.inner_text()
+    assert "acid-scavenger-short" in text

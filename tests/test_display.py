@@ -1,0 +1,127 @@
+"""The durable bundle, drawings, 3D, the check pad and the cell magic (no kernel needed)."""
+
+import xml.etree.ElementTree as ET
+from html import escape
+
+import pytest
+
+import chemcheck
+from chemcheck.display.bundle import mimebundle
+from chemcheck.display.draw import draw_component
+from chemcheck.display.threed import MOL3D_MIME, view3d
+from chemcheck.findings import Finding
+from chemcheck.magic import parse_cell
+
+FLAGGED = "Nc1ccccc1.CC(=O)Cl>AlCl3>CC(=O)c1ccc(N)cc1"
+
+
+def test_bundle_has_every_static_type():
+    b = chemcheck.check(FLAGGED)._repr_mimebundle_()
+    assert set(b) == {chemcheck.MIME_TYPE, "text/html", "text/plain", "image/svg+xml"}
+    ET.fromstring(b["image/svg+xml"])  # well-formed SVG
+
+
+def test_every_finding_is_in_the_html_and_the_text():
+    report = chemcheck.check(FLAGGED)
+    b = report._repr_mimebundle_()
+    for f in report.findings:
+        assert escape(f.message) in b["text/html"]
+        assert f.message in b["text/plain"]
+    html = b["text/html"].lower()
+    assert "<script" not in html and "<style" not in html and " style=" not in html
+
+
+def test_payload_carries_the_inputs_so_the_check_can_be_repeated():
+    report = chemcheck.check("CCCCN.CC(=O)Cl>Et3N>CCCCNC(C)=O", {"CCCCN": "1 mmol"})
+    payload = report._repr_mimebundle_()[chemcheck.MIME_TYPE]
+    again = chemcheck.check(payload["input"]["reaction"], payload["input"]["amounts"])
+    assert [f.rule for f in again.findings] == [f.rule for f in report.findings]
+
+
+def test_user_strings_are_escaped_in_the_html():
+    report = chemcheck.check("CCN")
+    hostile = '<img src=x onerror="alert(1)"><script>alert(2)</script>'
+    report.findings = [Finding("x-y", "warning", hostile, fix=hostile, title=hostile)]
+    report.components[0].name = hostile
+    html = mimebundle(report)["text/html"]
+    assert "<script>" not in html and "<img src=x" not in html
+    assert escape(hostile) in html
+
+
+def test_highlighted_atoms_are_drawn_in_the_scheme():
+    report = chemcheck.check(FLAGGED)
+    svg = report._repr_mimebundle_()["image/svg+xml"]
+    # RDKit draws highlights as filled ellipses/paths in the severity colour (error red #DB332D)
+    assert "#DB332D" in svg.upper()
+
+
+def test_drawing_background_is_transparent():
+    d = draw_component(chemcheck.check("c1ccccc1N").components[0].mol)
+    assert "fill:#FFFFFF" not in d.svg.replace(" ", "").upper().replace("FILL:#FFFFFF;FILL-OPACITY:0", "")
+
+
+def test_atom_coordinates_for_the_renderer():
+    payload = chemcheck.check(FLAGGED)._repr_mimebundle_()[chemcheck.MIME_TYPE]
+    comp0 = next(c for c in payload["drawing"]["components"] if c["component"] == 0)
+    assert len(comp0["atoms"]) == 7
+    assert all(0 <= x <= payload["drawing"]["width"] and 0 <= y <= payload["drawing"]["height"] for x, y in comp0["atoms"])
+
+
+def test_3d_view_has_hydrogens_and_highlights():
+    v = view3d(chemcheck.check(FLAGGED), 0)
+    b = v._repr_mimebundle_()
+    assert MOL3D_MIME in b and "image/svg+xml" in b
+    block = b[MOL3D_MIME]["molblock"]
+    assert " H " in block  # hydrogens shown
+    assert b[MOL3D_MIME]["highlights"] == [{"atom": 0, "color": "#db332d"}]
+
+
+def test_3d_falls_back_to_2d_when_embedding_is_impossible():
+    v = view3d("F[I](F)(F)(F)(F)F", 0)
+    b = v._repr_mimebundle_()
+    assert MOL3D_MIME not in b and "image/svg+xml" in b and "2D drawing shown" in b["text/plain"]
+
+
+def test_3d_bad_component():
+    with pytest.raises(chemcheck.ChemcheckError, match="out of range"):
+        view3d("CCN", 3)
+
+
+def test_check_pad_updates_and_keeps_bad_input():
+    p = chemcheck.pad("CCCCN.CC(=O)Cl>>CCCCNC(C)=O")
+    assert p.report is not None and p.report.by_rule("acid-scavenger-short")
+    assert len(p.rows.children) == 3  # one amount row per component
+    p.reaction.value = "CCCCN.CC(=O)Cl>Et3N>CCCCNC(C)=O"
+    p.refresh()
+    assert not p.report.by_rule("acid-scavenger-short")
+    p.reaction.value = "CCCCN.NCc1ccccc>>C"
+    p.refresh()
+    assert "ring closure 1 not closed" in p.status.value
+    assert p.reaction.value == "CCCCN.NCc1ccccc>>C"  # what was typed is kept
+
+
+def test_check_pad_amounts_are_read_back():
+    p = chemcheck.pad("CCCCN.CC(=O)Cl>Et3N>CCCCNC(C)=O")
+    field = p._amount_fields["CCCCN"]
+    field.value = "2.0 mmol"
+    p.refresh()
+    assert "2 mmol" in field._read_label.value
+    field.value = "2.0 mm"
+    p.refresh()
+    assert "unknown unit" in p.status.value
+
+
+def test_magic_cell_parsing():
+    rxn, amounts = parse_cell("# a note\nCCN.CC(=O)Cl>Et3N>CCNC(C)=O\nCC(=O)Cl = 1.1 equiv\nCCN=2 mmol\n")
+    assert rxn == "CCN.CC(=O)Cl>Et3N>CCNC(C)=O"
+    assert amounts == {"CC(=O)Cl": "1.1 equiv", "CCN": "2 mmol"}
+    with pytest.raises(chemcheck.ChemcheckError, match="line 2"):
+        parse_cell("CCN\nno amount here")
+
+
+def test_magic_prints_one_line_on_bad_input(capsys):
+    from chemcheck.magic import chemcheck_cell
+
+    chemcheck_cell("", "CCN.NCc1ccccc>>C")
+    err = capsys.readouterr().err
+    assert err.strip().startswith("chemcheck: component 2") and "Traceback" not in err
