@@ -90,3 +90,76 @@ def _run_scale(args) -> int:
     for c in info["cautions"]:
         print(f"  caution: {c}")
     return 0
+
+
+@command
+def _review(sub) -> None:
+    p = sub.add_parser("review", help="review the checks recorded in notebooks (for a group's CI)")
+    p.add_argument("notebooks", nargs="+", help="notebook files (.ipynb) or folders")
+    p.add_argument("--json", action="store_true", help="print the review as JSON")
+    p.add_argument("--fail-on", choices=["error", "warning"], default=None,
+                   help="exit 1 when an unacknowledged finding at this level or above remains")
+    p.add_argument("--no-recheck", action="store_true", help="use the recorded findings, do not re-check")
+    p.set_defaults(func=_run_review)
+
+
+def _expand(paths):
+    from pathlib import Path
+
+    out = []
+    for p in paths:
+        path = Path(p)
+        if path.is_dir():
+            out.extend(sorted(x for x in path.rglob("*.ipynb") if ".ipynb_checkpoints" not in x.parts))
+        else:
+            out.append(path)
+    return out
+
+
+def _run_review(args) -> int:
+    import sys
+
+    from .review import review_notebook
+
+    files = _expand(args.notebooks)
+    level = args.fail_on or "warning"
+    results = []
+    show_progress = len(files) > 1 and sys.stderr.isatty()
+    for i, path in enumerate(files, start=1):
+        if show_progress:
+            bar = "#" * int(30 * i / len(files))
+            print(f"\r[{bar:<30s}] {i}/{len(files)} {path.name[:40]:40s}", end="", file=sys.stderr, flush=True)
+        results.append(review_notebook(path, recheck=not args.no_recheck))
+    if show_progress:
+        print(file=sys.stderr)
+    failing = 0
+    if args.json:
+        print(json.dumps([r.to_dict(level) for r in results], indent=2))
+    for nb in results:
+        open_ = nb.open_findings(level)
+        failing += len([f for _, f in open_]) if args.fail_on else 0
+        if args.json:
+            continue
+        print(f"{nb.path}: {len(nb.reports)} report(s)", end="")
+        if not nb.reports:
+            print(" (no recorded checks)")
+            continue
+        print()
+        for r in nb.reports:
+            findings = r.current if r.current is not None else r.recorded
+            counts = {s: sum(1 for f in findings if f["severity"] == s) for s in ("error", "warning", "info")}
+            acked = sum(1 for f in findings if r.acknowledged(f))
+            print(f"  cell {r.cell + 1}: {r.reaction}")
+            print(f"    {counts['error']} error(s), {counts['warning']} warning(s), {counts['info']} note(s); {acked} acknowledged")
+            if r.recheck_error:
+                print(f"    re-check failed: {r.recheck_error}")
+            for f in r.new:
+                print(f"    new since recorded: [{f['severity']}] {f['rule']}: {f['message']}")
+            for f in r.gone:
+                print(f"    no longer found: [{f['severity']}] {f['rule']}")
+            for f in r.open_findings(level):
+                print(f"    open {f['severity']}: {f['rule']}: {f['message']}")
+    if args.fail_on and failing:
+        print(f"chemcheck review: {failing} unacknowledged finding(s) at {args.fail_on} level or above", file=sys.stderr)
+        return 1
+    return 0

@@ -3,6 +3,7 @@
 import type { IRenderMime } from '@jupyterlab/rendermime-interfaces';
 import { Widget } from '@lumino/widgets';
 
+import { getBridge, onAcksChanged } from './ack';
 import { el } from './dom';
 import { MOL3D_MIME, mol3dFactory } from './mol3d';
 import { isReport, renderReport } from './render';
@@ -14,20 +15,52 @@ export class ReportView extends Widget implements IRenderMime.IRenderer {
     super();
     this._mimeType = options.mimeType;
     this.addClass('cc-output');
+    this._redraw = this._redraw.bind(this); // bound once, so the listener can be removed
   }
 
   renderModel(model: IRenderMime.IMimeModel): Promise<void> {
-    const data = model.data[this._mimeType];
-    this.node.replaceChildren();
-    if (!isReport(data)) {
-      this.node.appendChild(el('p', 'cc-muted', 'This chemcheck output could not be read (unknown format).'));
-      return Promise.resolve();
-    }
-    this.node.appendChild(renderReport(data));
+    this._data = model.data[this._mimeType];
+    this._redraw();
     return Promise.resolve();
   }
 
+  protected onAfterAttach(): void {
+    this._unsubscribe = onAcksChanged(this._redraw);
+    this._redraw(); // now the node sits in a cell: its acknowledgements can be read
+  }
+
+  protected onBeforeDetach(): void {
+    this._unsubscribe?.();
+    this._unsubscribe = null;
+  }
+
+  private _redraw(): void {
+    const data = this._data;
+    this.node.replaceChildren();
+    if (!isReport(data)) {
+      this.node.appendChild(el('p', 'cc-muted', 'This chemcheck output could not be read (unknown format).'));
+      return;
+    }
+    const bridge = getBridge();
+    const acks = bridge?.acknowledgementsFor(this.node) ?? null;
+    this.node.appendChild(
+      renderReport(data, {
+        acknowledgements: acks ?? [],
+        onAcknowledge:
+          bridge && acks !== null
+            ? (finding, key, note) => {
+                if (bridge.acknowledge(this.node, finding, key, note)) {
+                  this._redraw();
+                }
+              }
+            : undefined
+      })
+    );
+  }
+
   private _mimeType: string;
+  private _data: unknown = null;
+  private _unsubscribe: (() => void) | null = null;
 }
 
 export const rendererFactory: IRenderMime.IRendererFactory = {

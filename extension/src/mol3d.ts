@@ -5,7 +5,8 @@ import { PageConfig, URLExt } from '@jupyterlab/coreutils';
 import type { IRenderMime } from '@jupyterlab/rendermime-interfaces';
 import { Widget } from '@lumino/widgets';
 
-import { el } from './dom';
+import { getBridge } from './ack';
+import { el, svgDataUrl } from './dom';
 
 export const MOL3D_MIME = 'application/vnd.chemcheck.mol3d+json';
 const SCRIPT = 'lab/extensions/chemcheck-jupyterlab/static/3Dmol-min.js';
@@ -67,6 +68,16 @@ export class Mol3DView extends Widget implements IRenderMime.IRenderer {
     this.node.appendChild(stage);
     if (!data || typeof data.molblock !== 'string') {
       caption.textContent = 'No 3D coordinates for this component.';
+      return;
+    }
+    const svg = model.data['image/svg+xml'];
+    if (getBridge()?.settings().show3d === false && typeof svg === 'string') {
+      stage.remove();
+      const img = el('img', 'cc-mol3d-fallback');
+      img.src = svgDataUrl(svg);
+      img.alt = data.label;
+      this.node.appendChild(img);
+      caption.textContent = `2D: ${data.label} (3D views are off in the settings)`;
       return;
     }
     try {

@@ -33,7 +33,42 @@ export function findingKey(f: Finding): string {
 
 export interface RenderOptions {
   acknowledgements?: Acknowledgement[];
-  onAcknowledge?: (finding: Finding, key: string) => void;
+  onAcknowledge?: (finding: Finding, key: string, note: string) => void;
+}
+
+/** A button that opens a small form: a note, then Save or Cancel. */
+export function ackForm(
+  f: Finding,
+  key: string,
+  onAcknowledge: (finding: Finding, key: string, note: string) => void
+): HTMLElement {
+  const wrap = el('div', 'cc-ack');
+  const button = el('button', 'cc-ack-button', 'Acknowledge…');
+  button.type = 'button';
+  wrap.appendChild(button);
+  button.addEventListener('click', () => {
+    button.hidden = true;
+    const form = el('div', 'cc-ack-form');
+    const note = el('textarea', 'cc-ack-note-input');
+    note.rows = 2;
+    note.placeholder = 'Why this finding is acceptable (e.g. "3 equiv AlCl3 used, see cell 12")';
+    note.setAttribute('aria-label', `Note for ${f.rule}`);
+    const save = el('button', 'cc-ack-save', 'Save acknowledgement');
+    save.type = 'button';
+    const cancel = el('button', 'cc-ack-cancel', 'Cancel');
+    cancel.type = 'button';
+    save.addEventListener('click', () => onAcknowledge(f, key, note.value.trim()));
+    cancel.addEventListener('click', () => {
+      form.remove();
+      button.hidden = false;
+    });
+    form.appendChild(note);
+    form.appendChild(save);
+    form.appendChild(cancel);
+    wrap.appendChild(form);
+    note.focus();
+  });
+  return wrap;
 }
 
 function componentLabel(c: Component): string {
@@ -148,10 +183,7 @@ export function renderFindings(
           el('p', 'cc-ack-note', `Acknowledged by ${ack.who} (${ack.when})${ack.note ? ': ' + ack.note : ''}`)
         );
       } else if (options.onAcknowledge) {
-        const button = el('button', 'cc-ack-button', 'Acknowledge…');
-        button.type = 'button';
-        button.addEventListener('click', () => options.onAcknowledge?.(f, key));
-        li.appendChild(button);
+        li.appendChild(ackForm(f, key, options.onAcknowledge));
       }
       const on = (): void => highlight(f);
       const off = (): void => highlight(null);

@@ -105,3 +105,9 @@ test('payloads of another format are recognised as such', () => {
   assert.equal(isReport(null), false);
   assert.equal(isReport(report()), true);
 });
+
+test('finding keys agree with the Python side (chemcheck.review.finding_key)', () => {
+  // the same literal is asserted in tests/test_review.py
+  const f = { rule: 'x-y', severity: 'info' as const, title: '', message: 'At most about 50 % conversion – K ≈ 10^5 😀', atoms: [] as [number, number][], fix: null, references: [] };
+  assert.equal(findingKey(f), 'x-y#82dd598e');
+});

@@ -1,0 +1,137 @@
+"""The report renderer and the review panel in JupyterLab, in real Chromium."""
+
+import copy
+import json
+import os
+import subprocess
+import sys
+from pathlib import Path
+
+import pytest
+
+import chemcheck
+
+from .conftest import code_cell, open_notebook, save_notebook
+
+pytestmark = pytest.mark.browser
+
+SHORT = "CCCCN.CC(=O)Cl>>CCCCNC(C)=O"
+FLAGGED = "Nc1ccccc1.CC(=O)Cl>AlCl3>CC(=O)c1ccc(N)cc1"
+
+
+def report_cell(reaction, cell_id, metadata=None):
+    bundle = chemcheck.check(reaction)._repr_mimebundle_()
+    return code_cell(
+        f"chemcheck.check({reaction!r})",
+        outputs=[{"output_type": "display_data", "data": bundle, "metadata": {}}],
+        metadata=metadata,
+        cell_id=cell_id,
+    )
+
+
+def test_hovering_a_finding_highlights_its_atoms(lab, page):
+    lab.write_notebook("hover.ipynb", [report_cell(FLAGGED, "h1")])
+    open_notebook(page, lab, "hover.ipynb", wait_kernel=False)
+    finding = page.locator('.cc-finding[data-rule="lewis-acid-quenched-by-amine"]').first
+    finding.wait_for(timeout=60_000)
+    assert page.locator(".cc-scheme-overlay circle").count() == 0
+    finding.hover()
+    page.wait_for_function("() => document.querySelectorAll('.cc-scheme-overlay circle').length >= 1")
+    # keyboard: focusing a finding highlights too
+    page.mouse.move(0, 0)
+    page.wait_for_function("() => document.querySelectorAll('.cc-scheme-overlay circle').length === 0")
+    finding.focus()
+    page.wait_for_function("() => document.querySelectorAll('.cc-scheme-overlay circle').length >= 1")
+
+
+def test_acknowledgement_is_stored_in_the_notebook(lab, page):
+    lab.write_notebook("ack.ipynb", [report_cell(SHORT, "a1")])
+    open_notebook(page, lab, "ack.ipynb", wait_kernel=False)
+    item = page.locator('.jp-OutputArea-output .cc-finding[data-rule="acid-scavenger-short"]').first
+    item.wait_for(timeout=60_000)
+    item.locator(".cc-ack-button").click()
+    item.locator(".cc-ack-note-input").fill("2 equiv of amine used, see cell 4")
+    item.locator(".cc-ack-save").click()
+    page.wait_for_selector('.jp-OutputArea-output .cc-finding.cc-acknowledged[data-rule="acid-scavenger-short"]', timeout=30_000)
+    save_notebook(page)
+    data = json.loads((lab.root / "ack.ipynb").read_text())
+    [ack] = data["cells"][0]["metadata"]["chemcheck"]["acknowledgements"]
+    assert ack["rule"] == "acid-scavenger-short" and ack["note"] == "2 equiv of amine used, see cell 4"
+    assert ack["who"] and ack["when"]
+    # the group's CI sees it
+    proc = subprocess.run(
+        [sys.executable, "-m", "chemcheck", "review", str(lab.root / "ack.ipynb"), "--fail-on", "warning"],
+        capture_output=True, text=True, timeout=300,
+    )
+    assert proc.returncode == 0, proc.stdout + proc.stderr
+    assert "1 acknowledged" in proc.stdout
+    # and it survives a reload
+    page.reload()
+    page.wait_for_selector('.jp-OutputArea-output .cc-finding.cc-acknowledged[data-rule="acid-scavenger-short"]', timeout=60_000)
+    assert "Acknowledged by" in page.locator(".jp-OutputArea-output .cc-acknowledged").first.inner_text()
+
+
+def test_panel_lists_reports_and_jumps_to_a_cell(lab, page):
+    cells = [report_cell(SHORT, "p1"), code_cell("x = 1", cell_id="p2"), report_cell(FLAGGED, "p3")]
+    lab.write_notebook("panel.ipynb", cells)
+    open_notebook(page, lab, "panel.ipynb", wait_kernel=False)
+    page.wait_for_selector(".jp-OutputArea-output .cc-report", timeout=60_000)
+    page.evaluate("window.jupyterapp.commands.execute('chemcheck:open-review')")
+    page.wait_for_function("() => document.querySelectorAll('.cc-review-entry').length === 2", timeout=30_000)
+    entries = page.locator(".cc-review-entry")
+    assert "Cell 1" in entries.nth(0).inner_text() and "Cell 3" in entries.nth(1).inner_text()
+    assert "1 warning(s)" in entries.nth(0).inner_text()
+    entries.nth(1).locator(".cc-review-jump").click()
+    page.wait_for_function("() => window.jupyterapp.shell.currentWidget.content.activeCellIndex === 2")
+    # the severity filter hides the notes
+    page.locator(".cc-review-filter").select_option("error")
+    page.wait_for_function(
+        "() => [...document.querySelectorAll('.cc-review-finding')].every(n => n.classList.contains('cc-error'))"
+    )
+
+
+HOSTILE = '<img src=x onerror="window.__pwned=1"><script>window.__pwned=2</script>'
+
+
+def hostile_bundle():
+    bundle = chemcheck.check(SHORT)._repr_mimebundle_()
+    payload = copy.deepcopy(bundle[chemcheck.MIME_TYPE])
+    payload["input"]["reaction"] = HOSTILE
+    for c in payload["components"]:
+        c["text"] = HOSTILE
+        c["name"] = HOSTILE
+        c["smiles"] = HOSTILE
+    for f in payload["findings"]:
+        f["message"] = "Hostile message " + HOSTILE
+        f["fix"] = "javascript:window.__pwned=3"
+        f["references"] = ["javascript:window.__pwned=4"]
+    for w in payload.get("workup", []):
+        w["message"] = HOSTILE
+    payload["drawing"]["scheme_svg"] = '<svg xmlns="http://www.w3.org/2000/svg" onload="window.__pwned=5"><script>window.__pwned=6</script></svg>'
+    bundle[chemcheck.MIME_TYPE] = payload
+    return bundle
+
+
+@pytest.mark.parametrize("trusted", [False, True])
+def test_hostile_payload_renders_as_text(lab, page, trusted):
+    name = f"hostile-{trusted}.ipynb"
+    ack = {"acknowledgements": [{"finding": "x", "rule": "acid-scavenger-short", "who": HOSTILE, "when": HOSTILE, "note": HOSTILE}]}
+    cell = code_cell("chemcheck.check(...)", outputs=[{"output_type": "display_data", "data": hostile_bundle(), "metadata": {}}],
+                     metadata={"chemcheck": ack}, cell_id=f"x{int(trusted)}")
+    path = lab.write_notebook(name, [cell])
+    if trusted:
+        jupyter = Path(sys.executable).with_name("jupyter")
+        subprocess.run([str(jupyter), "trust", str(path)], check=True, capture_output=True, env=dict(os.environ))
+    open_notebook(page, lab, name, wait_kernel=False)
+    page.wait_for_selector(".jp-OutputArea-output .cc-report", timeout=60_000)
+    page.wait_for_timeout(1000)
+    assert page.evaluate("() => window.__pwned") is None
+    report = page.locator(".jp-OutputArea-output .cc-report").first
+    assert "<script>" in report.inner_text()  # shown as text
+    assert report.locator("script").count() == 0
+    assert report.locator("img[onerror]").count() == 0
+    assert report.locator("a[href^='javascript']").count() == 0
+    page.evaluate("window.jupyterapp.commands.execute('chemcheck:open-review')")
+    page.wait_for_selector(".cc-review-entry", timeout=30_000)
+    page.wait_for_timeout(500)
+    assert page.evaluate("() => window.__pwned") is None
