@@ -123,6 +123,11 @@ def _canonical_order(mol: Chem.Mol) -> list[int]:
 
 
 def new_bonds_at_nitrogen(reaction: Reaction) -> list[NewBond]:
+    return new_bonds_at(reaction, 7)
+
+
+def new_bonds_at(reaction: Reaction, element: int = 7) -> list[NewBond]:
+    """Reactant atoms of ``element`` that gain a heavy neighbour (or, for N, an acyl group)."""
     from .perceive import nitrogen_sites
 
     corr = atom_correspondence(reaction)
@@ -134,14 +139,14 @@ def new_bonds_at_nitrogen(reaction: Reaction) -> list[NewBond]:
         inverse.setdefault(v, set()).add(k)
     for (ri, ra), (pi, pa) in corr.items():
         ratom = comps[ri].mol.GetAtomWithIdx(ra)
-        if ratom.GetAtomicNum() != 7:
+        if ratom.GetAtomicNum() != element:
             continue
         patom = comps[pi].mol.GetAtomWithIdx(pa)
         heavy_r = sum(1 for n in ratom.GetNeighbors() if n.GetAtomicNum() > 1)
         heavy_p = sum(1 for n in patom.GetNeighbors() if n.GetAtomicNum() > 1)
         kb = kinds.get(ri, {}).get(ra, "")
         ka = kinds.get(pi, {}).get(pa, "")
-        acylated = kb != ka and ka in ("amide", "sulfonamide", "carbamate", "urea", "imide")
+        acylated = kb != ka and ka in ("amide", "sulfonamide", "carbamate", "urea", "imide", "enamine", "iminium", "imine")
         if heavy_p <= heavy_r and not acylated:
             continue
         mapped_from_same = {pa2 for (ri2, ra2), (pi2, pa2) in corr.items() if ri2 == ri and pi2 == pi}

@@ -2,6 +2,9 @@
 
 from __future__ import annotations
 
+import os
+
+from .errors import ChemcheckError
 from .findings import Finding
 from .reaction import Reaction, parse_reaction
 from .report import Report
@@ -46,8 +49,24 @@ def check(reaction: str | Reaction, amounts: dict[str, str] | None = None) -> Re
                     fix="Check the drawing of this metal or hypervalent species.",
                 )
             )
+    strict = bool(os.environ.get("CHEMCHECK_STRICT"))
     for r in registry().values():
-        findings.extend(r.check(ctx) or ())
+        try:
+            findings.extend(r.check(ctx) or ())
+        except ChemcheckError:
+            raise
+        except Exception as exc:  # one rule's fault must not cost the chemist the whole check
+            if strict:
+                raise
+            findings.append(
+                Finding(
+                    rule="rule-failed",
+                    severity="info",
+                    title="A rule could not run",
+                    message=f"The rule {r.id} could not run on this reaction ({type(exc).__name__}); its pitfall was not checked.",
+                    fix="Please report this reaction to the chemcheck developers.",
+                )
+            )
     findings.sort(key=lambda f: _SEVERITY_ORDER[f.severity])
     report = Report(
         reaction=rxn,
@@ -57,6 +76,10 @@ def check(reaction: str | Reaction, amounts: dict[str, str] | None = None) -> Re
         balance=ctx.balance,
     )
     report.extra.update(_basicity_sections(ctx))
+    preds = getattr(ctx, "predictions", None) or []
+    if preds:
+        report.extra["predictions"] = [p.to_dict() for p in preds]
+        report.extra["classes"] = [{"name": p.reaction_class, "evidence": p.evidence} for p in preds]
     if stoich is not None:
         report.stoichiometry = stoich
         report.extra["table"] = stoich.to_dict()

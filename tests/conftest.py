@@ -32,3 +32,5 @@ def pytest_collection_modifyitems(config, items):
 
 
 os.environ.setdefault("PYDEVD_DISABLE_FILE_VALIDATION", "1")
+# in the tests an internal error in a rule fails loudly instead of becoming a note
+os.environ["CHEMCHECK_STRICT"] = "1"

@@ -193,3 +193,11 @@ def test_every_site_names_its_method_and_source():
         assert s.method and s.source
         if s.pka is not None:
             assert s.uncertainty is not None and s.uncertainty > 0
+
+
+def test_atom_indices_refer_to_the_molecule_as_given():
+    # 4-aminobenzylamine written with the aryl N first: atom 0 is the aniline N, atom 6 the CH2-NH2
+    sites = {s.atom_index: s.kind for s in basic_sites("Nc1ccc(CN)cc1")}
+    assert sites == {0: "aryl_amine", 6: "primary_amine"}
+    sites = {s.atom_index: s.kind for s in basic_sites("NCc1ccc(N)cc1")}
+    assert sites == {0: "primary_amine", 6: "aryl_amine"}

@@ -68,3 +68,36 @@ def test_agent_kind_is_perceived():
     report = chemcheck.check("CCN.CC(=O)Cl>Et3N.DCM.AlCl3.NaBH4>CCNC(C)=O")
     kinds = {c.text: c.kind for c in report.components if c.role == "agent"}
     assert kinds == {"Et3N": "base", "DCM": "solvent", "AlCl3": "lewis_acid", "NaBH4": "reductant"}
+
+
+def test_predictions_validate_and_name_the_class():
+    report = chemcheck.check("COc1ccccc1.CC(=O)Cl>AlCl3>COc1cccc(C(C)=O)c1")
+    payload = report._repr_mimebundle_()[chemcheck.MIME_TYPE]
+    jsonschema.Draft202012Validator(schema()).validate(payload)
+    [pred] = payload["predictions"]
+    assert pred["reaction_class"] == "Friedel-Crafts acylation"
+    assert pred["candidates"][0]["label"] == "major" and pred["candidates"][0]["smiles"] == "COc1ccc(C(C)=O)cc1"
+    assert any(c["drawn"] for c in pred["candidates"])
+    assert payload["classes"][0]["evidence"]
+
+
+def test_predictions_are_made_without_a_drawn_product():
+    payload = chemcheck.check("CCC(C)(Br)C.CC[O-].[Na+]>CCO>").to_dict()
+    [pred] = payload["predictions"]
+    assert pred["candidates"][0]["smiles"] == "CC=C(C)C"  # Zaitsev
+
+
+def test_a_failing_rule_becomes_a_note_not_a_crash(monkeypatch):
+    from chemcheck import rules as rules_mod
+
+    def broken(ctx):
+        """Broken."""
+        raise ZeroDivisionError("boom")
+        yield
+
+    fake = rules_mod.Rule(id="broken-rule", title="x", severity="info", check=broken, family="test")
+    monkeypatch.setitem(rules_mod._REGISTRY, "broken-rule", fake)
+    monkeypatch.delenv("CHEMCHECK_STRICT", raising=False)
+    report = chemcheck.check("CCN")
+    [f] = report.by_rule("rule-failed")
+    assert "broken-rule" in f.message and f.severity == "info"

@@ -20,7 +20,7 @@ ORDER = {"info": 0, "warning": 1, "error": 2}
 
 def _cases():
     for path in sorted(FIXTURES.glob("*.toml")):
-        if path.name == "clean_reactions.toml":
+        if path.name.startswith("clean_"):
             continue
         data = tomllib.loads(path.read_text())
         for section in ("flagged", "clean"):
@@ -53,14 +53,14 @@ def test_rule_fixture(rule_id, section, case):
 def test_every_rule_family_rule_has_a_fixture_with_three_and_three():
     have = {}
     for path in FIXTURES.glob("*.toml"):
-        if path.name == "clean_reactions.toml":
+        if path.name.startswith("clean_"):
             continue
         data = tomllib.loads(path.read_text())
         flagged = [c for c in data.get("flagged", []) if c.get("expect_flagged", True)]
         clean = [c for c in data.get("clean", []) if not c.get("expect_flagged", False)]
         have[data["rule"]] = (len(flagged), len(clean))
     for rid, r in registry().items():
-        if r.family in ("nitrogen",):
+        if r.family in ("nitrogen", "regio"):
             assert rid in have, f"no fixture for {rid}"
             assert have[rid][0] >= 3 and have[rid][1] >= 3, (rid, have[rid])
 
@@ -79,3 +79,22 @@ def test_no_error_or_warning_on_ordinary_reactions(case):
     report = chemcheck.check(case["reaction"], case.get("amounts"))
     bad = [(f.rule, f.severity, f.message) for f in report.findings if f.severity in ("error", "warning")]
     assert bad == []
+
+
+def _regio_clean():
+    data = tomllib.loads((FIXTURES / "clean_regio.toml").read_text())
+    return [pytest.param(c, id=c["name"]) for c in data["reaction"]]
+
+
+def test_clean_regio_fixture_is_large_enough():
+    assert len(_regio_clean()) >= 15
+
+
+@pytest.mark.parametrize("case", _regio_clean())
+def test_nothing_fires_on_ordinary_regiochemistry(case):
+    report = chemcheck.check(case["reaction"], case.get("amounts"))
+    regio = {"elimination-regiochemistry", "ring-substitution-regiochemistry", "ring-too-deactivated",
+             "condensation-product-mismatch", "acylation-chemoselectivity"}
+    bad = [(f.rule, f.severity, f.message) for f in report.findings if f.rule in regio or f.severity == "error"]
+    assert bad == []
+    assert report.to_dict().get("predictions"), "the class is recognised and predictions are made"

@@ -237,7 +237,16 @@ _NOT_BASIC = "not basic in water (lone pair delocalised, or none)"
 def basic_sites(smiles_or_mol, *, max_sites: int = 8) -> list[Site]:
     """One :class:`Site` per nitrogen of the molecule, with the pKa of its conjugate acid."""
     mol = _to_mol(smiles_or_mol)
-    return list(_basic_sites_cached(Chem.MolToSmiles(mol), max_sites)) if mol.GetNumAtoms() < 400 else _compute(mol, max_sites)
+    if mol.GetNumAtoms() >= 400:
+        return _compute(mol, max_sites)
+    with _rdlog.captured():
+        smiles = Chem.MolToSmiles(mol)
+    # the cache works in canonical atom order: map the indices back to the caller's molecule
+    order = [int(x) for x in mol.GetProp("_smilesAtomOutputOrder").strip("[]").split(",") if x.strip()]
+    cached = _basic_sites_cached(smiles, max_sites)
+    if len(order) != mol.GetNumAtoms():
+        return _compute(mol, max_sites)
+    return sorted((replace(s, atom_index=order[s.atom_index]) for s in cached), key=lambda s: s.atom_index)
 
 
 @lru_cache(maxsize=2048)
