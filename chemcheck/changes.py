@@ -79,7 +79,16 @@ def _mcs_map(r_smiles: str, p_smiles: str) -> tuple[tuple[int, int], ...]:
 
 
 def atom_correspondence(reaction: Reaction) -> dict[tuple[int, int], tuple[int, int]]:
-    """(reactant component, atom) -> (product component, atom)."""
+    """(reactant component, atom) -> (product component, atom); computed once per reaction."""
+    cached = getattr(reaction, "_correspondence", None)
+    if cached is not None:
+        return cached
+    out = _correspondence(reaction)
+    reaction._correspondence = out
+    return out
+
+
+def _correspondence(reaction: Reaction) -> dict[tuple[int, int], tuple[int, int]]:
     out: dict[tuple[int, int], tuple[int, int]] = {}
     if reaction.mapped:
         prod_by_map = {}

@@ -12,7 +12,7 @@ from functools import lru_cache
 
 from .data.reagents import REAGENTS
 
-__all__ = ["NameHit", "lookup_name", "name_for_inchikey", "kind_for_inchikey", "normalise"]
+__all__ = ["NameHit", "lookup_name", "name_for_smiles", "kind_for_smiles", "name_for_inchikey", "kind_for_inchikey", "normalise"]
 
 _DROP = str.maketrans("", "", " \t·•∙.-_(),'’/")
 _SUBSCRIPTS = str.maketrans("₀₁₂₃₄₅₆₇₈₉", "0123456789")
@@ -58,6 +58,32 @@ def _by_inchikey() -> dict[str, tuple[str, str]]:
             if key:
                 out.setdefault(key, (names[0], kind))
     return out
+
+
+@lru_cache(maxsize=1)
+def _by_smiles() -> dict[str, tuple[str, str]]:
+    from rdkit import Chem
+
+    from . import _rdlog
+
+    out: dict[str, tuple[str, str]] = {}
+    with _rdlog.captured():
+        for names, smiles, kind in REAGENTS:
+            mol = Chem.MolFromSmiles(smiles)
+            if mol is not None:
+                out.setdefault(Chem.MolToSmiles(mol), (names[0], kind))
+    return out
+
+
+def name_for_smiles(canonical_smiles: str) -> str | None:
+    """The table name of a structure, by its RDKit canonical SMILES (same structure, same string)."""
+    hit = _by_smiles().get(canonical_smiles)
+    return hit[0] if hit else None
+
+
+def kind_for_smiles(canonical_smiles: str) -> str | None:
+    hit = _by_smiles().get(canonical_smiles)
+    return hit[1] if hit else None
 
 
 def name_for_inchikey(inchikey: str) -> str | None:

@@ -24,7 +24,7 @@ from rdkit.Chem import Descriptors, rdMolDescriptors
 from . import _rdlog
 from .errors import LimitError, ParseError
 from .molecule import read_smiles
-from .names import kind_for_inchikey, lookup_name, name_for_inchikey
+from .names import kind_for_smiles, lookup_name, name_for_smiles
 
 __all__ = ["Component", "Reaction", "parse_reaction", "ROLES", "MAX_COMPONENTS", "MAX_ATOMS"]
 
@@ -62,7 +62,7 @@ class Component:
     smiles: str
     formula: str
     mw: float
-    inchikey: str
+    _inchikey: str | None
     name: str | None
     source: str
     sanitization: str
@@ -71,6 +71,17 @@ class Component:
     span: tuple[int, int]
     kind: str | None = None  # perceived kind; filled in by perception for agents
     kind_hint: str | None = None
+
+    @property
+    def inchikey(self) -> str:
+        """Standard InChIKey, computed on first use (it costs more than the rest of parsing)."""
+        if self._inchikey is None:
+            with _rdlog.captured():
+                try:
+                    self._inchikey = Chem.MolToInchiKey(self.mol) or ""
+                except (RuntimeError, ValueError):
+                    self._inchikey = ""
+        return self._inchikey
 
     @property
     def charge(self) -> int:
@@ -322,21 +333,17 @@ def _build_component(index: int, frags: list[Fragment], text_full: str) -> Compo
             mw = float(Descriptors.MolWt(mol))
         except (RuntimeError, ValueError):
             mw = float("nan")
-        try:
-            inchikey = Chem.MolToInchiKey(mol) or ""
-        except (RuntimeError, ValueError):
-            inchikey = ""
     names = [f.name for f in frags]
     if len(frags) == 1:
-        name = names[0] or (name_for_inchikey(inchikey) if inchikey else None)
+        name = names[0] or name_for_smiles(smiles)
     elif all(names):
         name = " · ".join(n for n in names if n)
     else:
-        name = name_for_inchikey(inchikey) if inchikey else None
+        name = name_for_smiles(smiles)
     sources = sorted({f.source for f in frags})
     kind_hint = frags[0].kind_hint if len(frags) == 1 else None
-    if kind_hint is None and inchikey:
-        kind_hint = kind_for_inchikey(inchikey)
+    if kind_hint is None:
+        kind_hint = kind_for_smiles(smiles)
     start = frags[0].start
     end = frags[-1].start + len(frags[-1].text)
     return Component(
@@ -347,7 +354,7 @@ def _build_component(index: int, frags: list[Fragment], text_full: str) -> Compo
         smiles=smiles,
         formula=formula,
         mw=mw,
-        inchikey=inchikey,
+        _inchikey=None,
         name=name,
         source=" + ".join(sources),
         sanitization=sanitization,

@@ -109,7 +109,7 @@ class _Ref:
     source: str
     uncertainty: float
     family: str
-    inchikey: str
+    smiles: str
     n_equiv: int
     heavy: int
 
@@ -135,7 +135,7 @@ def _references() -> tuple[_Ref, ...]:
             kinds = {s.atom_index: s.kind for s in nitrogen_sites(mol)}
             fam = _family(mol, site, kinds[site])
             out.append(
-                _Ref(name, mol, site, site2, pka1, pka2, source, unc, fam, Chem.MolToInchiKey(mol),
+                _Ref(name, mol, site, site2, pka1, pka2, source, unc, fam, Chem.MolToSmiles(mol),
                      _equivalents(mol, site), mol.GetNumHeavyAtoms())
             )
     return tuple(out)
@@ -160,7 +160,7 @@ def _smallest_ring(mol: Chem.Mol, bond) -> int:
 
 def _anchor(mol: Chem.Mol, idx: int, fam: str) -> tuple[_Ref, bool] | None:
     """The best reference for this site: (ref, exact) where exact means the same compound."""
-    key = Chem.MolToInchiKey(mol) if mol.GetNumAtoms() < 200 else ""
+    key = Chem.MolToSmiles(mol) if mol.GetNumAtoms() < 200 else ""
     best: _Ref | None = None
     exact = False
     for ref in _references():
@@ -169,7 +169,7 @@ def _anchor(mol: Chem.Mol, idx: int, fam: str) -> tuple[_Ref, bool] | None:
         for match in mol.GetSubstructMatches(ref.mol, uniquify=False, maxMatches=50):
             if match[ref.site] != idx or not _ring_bonds_kept(ref.mol, mol, match):
                 continue
-            if ref.inchikey == key:
+            if ref.smiles == key:
                 return ref, True
             if best is None or ref.heavy > best.heavy:
                 best = ref

@@ -5,7 +5,9 @@ Pure functions over RDKit molecules; the catalog of patterns is data (``catalog.
 
 from __future__ import annotations
 
-from dataclasses import dataclass, field
+from collections import OrderedDict
+from dataclasses import dataclass, field, replace
+from functools import lru_cache
 
 from rdkit import Chem
 
@@ -51,8 +53,16 @@ class GroupMatch:
         return self.atoms[0]
 
 
+_RINGS_OK: OrderedDict[int, Chem.Mol] = OrderedDict()
+
+
 def _ensure_rings(mol: Chem.Mol) -> None:
     # molecules read with partial sanitization or split without it have no ring information
+    if _RINGS_OK.get(id(mol)) is mol:
+        return
+    _RINGS_OK[id(mol)] = mol
+    if len(_RINGS_OK) > _KEYS_MAX:
+        _RINGS_OK.popitem(last=False)
     from .. import _rdlog
 
     with _rdlog.captured():
@@ -62,8 +72,74 @@ def _ensure_rings(mol: Chem.Mol) -> None:
             Chem.FastFindRings(mol)
 
 
+_KEYS: OrderedDict[int, tuple] = OrderedDict()
+_KEYS_MAX = 1024
+
+
+def _canonical_key(mol: Chem.Mol) -> tuple[str, list[int]] | None:
+    """Canonical SMILES and, for each canonical atom, its index in ``mol`` (for caches).
+
+    Remembered per molecule object (the entry keeps the object alive, so its id cannot be
+    reused); molecules are not changed in place after parsing.
+    """
+    hit = _KEYS.get(id(mol))
+    if hit is not None and hit[0] is mol:
+        _KEYS.move_to_end(id(mol))
+        return hit[1]
+    key = _compute_key(mol)
+    _KEYS[id(mol)] = (mol, key)
+    if len(_KEYS) > _KEYS_MAX:
+        _KEYS.popitem(last=False)
+    return key
+
+
+def _compute_key(mol: Chem.Mol) -> tuple[str, list[int]] | None:
+    from .. import _rdlog
+
+    if mol.GetNumAtoms() > 300:
+        return None
+    with _rdlog.captured():
+        try:
+            smi = Chem.MolToSmiles(mol)
+        except Exception:
+            return None
+    order = [int(x) for x in mol.GetProp("_smilesAtomOutputOrder").strip("[]").split(",") if x.strip()]
+    if len(order) != mol.GetNumAtoms():
+        return None
+    return smi, order
+
+
+@lru_cache(maxsize=4096)
+def _sites_canonical(smiles: str) -> tuple:
+    from .. import _rdlog
+
+    with _rdlog.captured():
+        m = Chem.MolFromSmiles(smiles, sanitize=False)
+        m.UpdatePropertyCache(strict=False)
+        Chem.SanitizeMol(m, catchErrors=True)
+    return tuple(_nitrogen_sites(m)), tuple(_reactive_groups(m))
+
+
 def nitrogen_sites(mol: Chem.Mol) -> list[NitrogenSite]:
     """One site per nitrogen atom, classified by the first catalog class that matches it."""
+    key = _canonical_key(mol)
+    if key is None:
+        return _nitrogen_sites(mol)
+    smi, order = key
+    sites, _ = _sites_canonical(smi)
+    return sorted((replace(s, atom_index=order[s.atom_index]) for s in sites), key=lambda s: s.atom_index)
+
+
+def reactive_groups(mol: Chem.Mol) -> list[GroupMatch]:
+    key = _canonical_key(mol)
+    if key is None:
+        return _reactive_groups(mol)
+    smi, order = key
+    _, groups = _sites_canonical(smi)
+    return [GroupMatch(g.name, tuple(order[i] for i in g.atoms), g.detail) for g in groups]
+
+
+def _nitrogen_sites(mol: Chem.Mol) -> list[NitrogenSite]:
     _ensure_rings(mol)
     kind_of: dict[int, str] = {}
     for cls in NITROGEN_CLASSES:
@@ -97,7 +173,7 @@ def _alpha_h(mol: Chem.Mol, carbonyl: int) -> int:
     )
 
 
-def reactive_groups(mol: Chem.Mol) -> list[GroupMatch]:
+def _reactive_groups(mol: Chem.Mol) -> list[GroupMatch]:
     _ensure_rings(mol)
     out: list[GroupMatch] = []
     for g in GROUPS:
@@ -208,6 +284,7 @@ _HINDERED = tuple(
 
 
 def is_hindered_base(mol: Chem.Mol) -> bool:
+    _ensure_rings(mol)
     return any(mol.HasSubstructMatch(p) for p in _HINDERED)
 
 
@@ -269,6 +346,7 @@ def agent_kind(nitrogens, groups: list[GroupMatch], hint: str | None) -> str:
 
 
 def perceive(mol: Chem.Mol, hint: str | None = None) -> Perception:
+    _ensure_rings(mol)
     sites = nitrogen_sites(mol)
     groups = reactive_groups(mol)
     return Perception(

@@ -738,7 +738,15 @@ def uphill_proton_transfer(ctx: Context):
     if not rxn.products:
         return
     spectators = {"[Na+]", "[K+]", "[Li+]", "[Cs+]", "[Cl-]", "[Br-]", "[I-]"}
+    from collections import Counter
+
     from rdkit import Chem
+
+    def heavy(comps):
+        return Counter(a.GetSymbol() for c in comps for a in c.mol.GetAtoms() if a.GetAtomicNum() > 1)
+
+    if heavy(rxn.reactants) != heavy(rxn.products):
+        return  # heavy atoms changed: more than a proton moved
 
     def frags(comps):
         out = []

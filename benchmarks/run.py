@@ -1,0 +1,141 @@
+"""The chemcheck benchmark: ratios against bare RDKit in one run (make bench).
+
+Measures, over a generated corpus (benchmarks/corpus.py):
+* bare RDKit: parsing and sanitizing every fragment of each reaction (names resolved first);
+* ``check()`` without drawing: median and p95 per reaction, as a ratio to bare parsing;
+* ``check()`` with the SVG scheme (the notebook bundle), for six-component reactions;
+* batch throughput (reactions per second, one process) and peak memory;
+* ``import chemcheck`` against ``import rdkit.Chem``.
+Writes benchmarks/results/bench.json. It reports; it never fails.
+"""
+
+from __future__ import annotations
+
+import json
+import os
+import re
+import resource
+import statistics
+import subprocess
+import sys
+import time
+from pathlib import Path
+
+HERE = Path(__file__).resolve().parent
+sys.path.insert(0, str(HERE))
+
+GOALS = {
+    "check_over_bare_median": 15.0,
+    "six_component_with_drawing_ms_median": 60.0,
+    "reactions_per_second_no_drawing": 100.0,
+    "import_overhead_s": 0.3,
+}
+
+
+def _pct(values, q):
+    values = sorted(values)
+    k = max(0, min(len(values) - 1, int(round(q * (len(values) - 1)))))
+    return values[k]
+
+
+def _import_time(stmt: str, repeats: int = 5) -> float:
+    best = float("inf")
+    for _ in range(repeats):
+        t = time.perf_counter()
+        subprocess.run([sys.executable, "-c", stmt], check=True)
+        best = min(best, time.perf_counter() - t)
+    return best
+
+
+def main(n: int = 1200) -> dict:
+    import corpus
+    from rdkit import Chem, RDLogger
+
+    RDLogger.DisableLog("rdApp.*")
+    import chemcheck
+    from chemcheck.display.bundle import mimebundle
+    from chemcheck.names import lookup_name
+
+    reactions = corpus.generate(n)
+
+    def fragments(text):
+        out = []
+        for tok in re.split(r"[.>]", text):
+            if not tok:
+                continue
+            m = Chem.MolFromSmiles(tok)
+            if m is None:
+                hit = lookup_name(tok)
+                tok = hit.smiles if hit else tok
+            out.append(tok)
+        return out
+
+    resolved = [fragments(r["reaction"]) for r in reactions]
+    # warm-up (catalog compilation, reference tables, name table)
+    for r in reactions[:30]:
+        chemcheck.check(r["reaction"], r["amounts"])
+
+    bare = []
+    for frags in resolved:
+        t = time.perf_counter()
+        for s in frags:
+            Chem.MolFromSmiles(s)
+        bare.append(time.perf_counter() - t)
+
+    rss0 = resource.getrusage(resource.RUSAGE_SELF).ru_maxrss
+    per = []
+    errors = 0
+    t_all = time.perf_counter()
+    for r in reactions:
+        t = time.perf_counter()
+        try:
+            chemcheck.check(r["reaction"], r["amounts"])
+        except chemcheck.ChemcheckError:
+            errors += 1
+        per.append(time.perf_counter() - t)
+    t_all = time.perf_counter() - t_all
+    rss1 = resource.getrusage(resource.RUSAGE_SELF).ru_maxrss
+
+    ratios = [c / b for c, b in zip(per, bare) if b > 0]
+    six = [r for r, f in zip(reactions, resolved) if len(f) >= 5][:150]
+    drawn = []
+    for r in six:
+        t = time.perf_counter()
+        report = chemcheck.check(r["reaction"], r["amounts"])
+        mimebundle(report)
+        drawn.append(time.perf_counter() - t)
+
+    imp_rdkit = _import_time("import rdkit.Chem")
+    imp_cc = _import_time("import chemcheck")
+    result = {
+        "reactions": len(reactions),
+        "check_errors": errors,
+        "bare_rdkit_ms_median": round(1000 * statistics.median(bare), 4),
+        "check_ms_median": round(1000 * statistics.median(per), 3),
+        "check_ms_p95": round(1000 * _pct(per, 0.95), 3),
+        "check_over_bare_median": round(statistics.median(ratios), 1),
+        "check_over_bare_p95": round(_pct(ratios, 0.95), 1),
+        "six_component_with_drawing_ms_median": round(1000 * statistics.median(drawn), 2) if drawn else None,
+        "six_component_with_drawing_ms_p95": round(1000 * _pct(drawn, 0.95), 2) if drawn else None,
+        "reactions_per_second_no_drawing": round(len(reactions) / t_all, 1),
+        "peak_rss_mb": round(rss1 / 1024, 1),
+        "rss_growth_during_checks_mb": round((rss1 - rss0) / 1024, 1),
+        "import_rdkit_s": round(imp_rdkit, 3),
+        "import_chemcheck_s": round(imp_cc, 3),
+        "import_overhead_s": round(imp_cc - imp_rdkit, 3),
+        "cpu": os.cpu_count(),
+        "goals": GOALS,
+    }
+    return result
+
+
+if __name__ == "__main__":
+    res = main(int(sys.argv[1]) if len(sys.argv) > 1 else 1200)
+    out = HERE / "results"
+    out.mkdir(exist_ok=True)
+    (out / "bench.json").write_text(json.dumps(res, indent=2))
+    for k, v in res.items():
+        if k != "goals":
+            goal = GOALS.get(k)
+            mark = "" if goal is None else ("  (goal ≤ %s)" % goal if "per_second" not in k else "  (goal ≥ %s)" % goal)
+            print(f"{k:40s} {v}{mark}")
