@@ -163,3 +163,33 @@ def _run_review(args) -> int:
         print(f"chemcheck review: {failing} unacknowledged finding(s) at {args.fail_on} level or above", file=sys.stderr)
         return 1
     return 0
+
+
+@command
+def _batch(sub) -> None:
+    p = sub.add_parser("batch", help="check every reaction of a CSV/SMILES file or a folder of notebooks")
+    p.add_argument("source", help="a .csv (column 'reaction'), a .smi file, or a folder of notebooks")
+    p.add_argument("--out", "-o", default="chemcheck-findings.csv", help="output table: .csv, .json or .parquet")
+    p.add_argument("--workers", "-j", type=int, default=None, help="processes (default: the CPU count)")
+    p.add_argument("--fail-on", choices=["error", "warning"], help="exit 1 when a finding at this level or above is present")
+    p.set_defaults(func=_run_batch)
+
+
+def _run_batch(args) -> int:
+    import sys
+
+    from .batch import read_records, run_batch, write_table
+
+    records = list(read_records(args.source))
+    rows = run_batch(records, workers=args.workers)
+    out = write_table(rows, args.out)
+    n_err = sum(1 for r in rows if r["severity"] == "error")
+    n_warn = sum(1 for r in rows if r["severity"] == "warning")
+    n_fail = sum(1 for r in rows if r["error"])
+    print(f"{len(records)} reaction(s): {n_err} error(s), {n_warn} warning(s); {n_fail} could not be read; table in {out}")
+    if args.fail_on:
+        levels = ("error",) if args.fail_on == "error" else ("error", "warning")
+        if any(r["severity"] in levels for r in rows):
+            print(f"chemcheck batch: findings at {args.fail_on} level or above", file=sys.stderr)
+            return 1
+    return 0
