@@ -105,6 +105,25 @@ def main(n: int = 1200) -> dict:
         mimebundle(report)
         drawn.append(time.perf_counter() - t)
 
+    # hard limits: each answered or refused (the bound is 2 s)
+    limits = {}
+    big = "N" + "C" * 1998 + "N.CC(=O)Cl"
+    many = ".".join(["CCO"] * 100)
+    fused = "c1ccc2" + "".join(f"cc{k if k < 10 else '%' + str(k)}" for k in range(3, 41)) + "ccccc%40" + "".join(f"cc{k if k < 10 else '%' + str(k)}" for k in range(39, 1, -1)) + "c1"
+    for label, text, amounts in (
+        ("2000_atom_molecule_s", big, None),
+        ("100_component_reaction_s", many, None),
+        ("40_fused_rings_s", fused + ".CC(=O)Cl>AlCl3>", None),
+        ("huge_amount_refused_s", "CCN", {"CCN": "1e30 g"}),
+        ("too_many_components_refused_s", ".".join(["C"] * 1000), None),
+    ):
+        t = time.perf_counter()
+        try:
+            chemcheck.check(text, amounts)
+        except chemcheck.ChemcheckError:
+            pass
+        limits[label] = round(time.perf_counter() - t, 3)
+
     imp_rdkit = _import_time("import rdkit.Chem")
     imp_cc = _import_time("import chemcheck")
     result = {
@@ -123,6 +142,7 @@ def main(n: int = 1200) -> dict:
         "import_rdkit_s": round(imp_rdkit, 3),
         "import_chemcheck_s": round(imp_cc, 3),
         "import_overhead_s": round(imp_cc - imp_rdkit, 3),
+        "limits": limits,
         "cpu": os.cpu_count(),
         "goals": GOALS,
     }

@@ -19,7 +19,7 @@ from collections.abc import Iterable, Sequence
 from dataclasses import dataclass, field
 
 from rdkit import Chem
-from rdkit.Chem import Descriptors, rdMolDescriptors
+from rdkit.Chem import rdMolDescriptors
 
 from . import _rdlog
 from .errors import LimitError, ParseError
@@ -330,7 +330,7 @@ def _build_component(index: int, frags: list[Fragment], text_full: str) -> Compo
         except (RuntimeError, ValueError):
             formula = ""
         try:
-            mw = float(Descriptors.MolWt(mol))
+            mw = float(rdMolDescriptors._CalcMolWt(mol))
         except (RuntimeError, ValueError):
             mw = float("nan")
     names = [f.name for f in frags]

@@ -335,12 +335,12 @@ def _likely_cause(row: Row, a: Amount, ref_mmol: float) -> str:
     causes = []
     # salt weighed, free-base molar mass used in the plan (or the reverse)
     from rdkit import Chem
-    from rdkit.Chem import Descriptors
+    from rdkit.Chem import rdMolDescriptors
 
     frags = Chem.GetMolFrags(c.mol, asMols=True)
     if len(frags) > 1 and row.mass_g is not None:
         biggest = max(frags, key=lambda m: m.GetNumHeavyAtoms())
-        alt = row.mass_g / Descriptors.MolWt(biggest) * 1000
+        alt = row.mass_g / rdMolDescriptors._CalcMolWt(biggest) * 1000
         if abs(alt - target) / target <= 0.05:
             causes.append("the planned amount used the free base's molar mass, but this is the salt")
     if row.mass_g is not None:
