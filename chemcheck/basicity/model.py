@@ -352,6 +352,43 @@ def _oxo_or_nr(key: str, d: int) -> tuple[float, float]:
     return 0.0, K.RING_NR_SIGMA["meta" if d == 2 else "para"]
 
 
+def _hammett_sum(
+    mol: Chem.Mol,
+    ring: list[int],
+    centre: int,
+    ortho_table: dict[str, float],
+    *,
+    default_ortho: float,
+    ring_hetero: float,
+    para_minus: bool,
+    five_ring: bool = False,
+) -> tuple[float, float]:
+    """(sum of ortho increments, sum of sigma) of a ring's substituents seen from ``centre``."""
+    ortho = sigma = 0.0
+    for d, key in _ring_substituents(mol, ring, centre):
+        if five_ring:
+            d = {1: 1, 2: 2}.get(d, 2)
+        if key == "aza":
+            if d == 1:
+                ortho += K.AZA_ORTHO_INCREMENT
+            else:
+                sigma += K.AZA_SIGMA["meta" if d == 2 else "para"]
+            continue
+        if key in ("oxo", "ring_nR", "ring_n+"):
+            o, sg = _oxo_or_nr(key, d)
+            ortho += o
+            sigma += sg
+            continue
+        if key.startswith("ring_"):
+            sigma += ring_hetero
+            continue
+        if d == 1:
+            ortho += ortho_table.get(key, default_ortho if key != "H" else 0.0)
+        else:
+            sigma += _sigma_for(key, d, para_minus)
+    return ortho, sigma
+
+
 def aniline(mol: Chem.Mol, n_idx: int) -> tuple[float, str]:
     n = mol.GetAtomWithIdx(n_idx)
     aryls = [x for x in n.GetNeighbors() if x.GetIsAromatic()]
@@ -370,28 +407,10 @@ def aniline(mol: Chem.Mol, n_idx: int) -> tuple[float, str]:
             pka += 0.35 - 3.0 * group_sigma_star(mol, x, n)
     if ring is None:
         return pka, "Hammett equation, aniline"
-    ring_size = len(ring)
-    for d, key in _ring_substituents(mol, ring, ipso.GetIdx()):
-        if ring_size == 5:
-            d = {1: 1, 2: 2}.get(d, 2)
-        if key == "aza":
-            if d == 1:
-                ortho += K.AZA_ORTHO_INCREMENT
-            else:
-                sigma += K.AZA_SIGMA["meta" if d == 2 else "para"]
-            continue
-        if key in ("oxo", "ring_nR", "ring_n+"):
-            o, sg = _oxo_or_nr(key, d)
-            ortho += o
-            sigma += sg
-            continue
-        if key.startswith("ring_"):
-            sigma += 0.3
-            continue
-        if d == 1:
-            ortho += K.ORTHO_ANILINE.get(key, -0.5 if key != "H" else 0.0)
-        else:
-            sigma += _sigma_for(key, d, True)
+    ortho, sigma = _hammett_sum(
+        mol, ring, ipso.GetIdx(), K.ORTHO_ANILINE, default_ortho=-0.5, ring_hetero=0.3,
+        para_minus=True, five_ring=len(ring) == 5,
+    )
     return pka + ortho - K.ANILINE["rho"] * sigma, f"Hammett equation, aniline (sum sigma {sigma:+.2f})"
 
 
@@ -438,27 +457,9 @@ def azine(mol: Chem.Mol, n_idx: int) -> tuple[float, str]:
     ring6 = _ring_of(mol, n_idx, 6)
     if ring6 is not None:
         pka = K.PYRIDINE["pka0"]
-        sigma = 0.0
-        ortho = 0.0
-        for d, key in _ring_substituents(mol, ring6, n_idx):
-            if key == "aza":
-                if d == 1:
-                    ortho += K.AZA_ORTHO_INCREMENT
-                else:
-                    sigma += K.AZA_SIGMA["meta" if d == 2 else "para"]
-                continue
-            if key in ("oxo", "ring_nR", "ring_n+"):
-                o, sg = _oxo_or_nr(key, d)
-                ortho += o
-                sigma += sg
-                continue
-            if key.startswith("ring_"):
-                sigma += 0.5
-                continue
-            if d == 1:
-                ortho += K.ORTHO_PYRIDINE.get(key, -1.0 if key != "H" else 0.0)
-            else:
-                sigma += _sigma_for(key, d, False)
+        ortho, sigma = _hammett_sum(
+            mol, ring6, n_idx, K.ORTHO_PYRIDINE, default_ortho=-1.0, ring_hetero=0.5, para_minus=False
+        )
         return pka + ortho - K.PYRIDINE["rho"] * sigma, f"Hammett equation, pyridine-type N (sum sigma {sigma:+.2f})"
     ring5 = _ring_of(mol, n_idx, 5)
     if ring5 is None:

@@ -8,6 +8,7 @@ from rdkit import Chem
 
 from .. import _rdlog
 from ..regio import Candidate, Prediction, canonical, elimination, rank_labels, same_compound, substitution
+from ..basicity import _protonate
 from . import Context, rule
 from ._support import ACYLATING, changed_nitrogens, salt_info
 
@@ -305,7 +306,7 @@ def ring_substitution_regiochemistry(ctx: Context):
     acidic = klass in ("nitration", "sulfonation")
     if free_anilines and acidic:
         n = free_anilines[0]
-        mol = _protonate_n(mol, n.atom_index) or mol
+        mol = _protonate(mol, n.atom_index)
         yield r.finding(
             f"In {klass.split()[0]} conditions the strong acid protonates the aniline nitrogen of {sub.label} "
             "(pKa of the anilinium about 4.6): the anilinium ion directs meta on a deactivated ring, and nitric acid "
@@ -339,21 +340,6 @@ def ring_substitution_regiochemistry(ctx: Context):
     f = _verdict(r, pred, "isomer", [(sub.index, a.GetIdx()) for a in sub.mol.GetAtoms() if a.GetIsAromatic()][:0])
     if f is not None:
         yield f
-
-
-def _protonate_n(mol, idx):
-    rw = Chem.RWMol(mol)
-    a = rw.GetAtomWithIdx(idx)
-    a.SetFormalCharge(1)
-    a.SetNumExplicitHs(a.GetTotalNumHs() + 1)
-    a.SetNoImplicit(True)
-    with _rdlog.captured():
-        try:
-            m = rw.GetMol()
-            Chem.SanitizeMol(m)
-            return m
-        except Exception:
-            return None
 
 
 @rule(id="ring-too-deactivated", title="The ring is too deactivated for the substitution", severity="error")
