@@ -71,12 +71,31 @@ def test_dask_bag_local_schedulers(csv_file):
         assert sorted((r["item"], r["rule"] or "") for r in rows) == serial
 
 
+def test_dask_dataframe_map_partitions(csv_file):
+    import dask.dataframe as dd
+    import pandas as pd
+
+    from chemcheck.batch import COLUMNS, check_partition
+
+    records = list(read_records(csv_file))
+    pdf = pd.DataFrame({"reaction": [r["reaction"] for r in records], "item": [r["item"] for r in records]})
+    ddf = dd.from_pandas(pdf, npartitions=2)
+    meta = pd.DataFrame({c: pd.Series(dtype="object") for c in COLUMNS})
+    out = ddf.map_partitions(check_partition, meta=meta).compute(scheduler="threads")
+    assert "acid-scavenger-short" in set(out[out["item"] == "no base"]["rule"])
+    assert out[out["item"] == "broken"]["error"].iloc[0].startswith("component 1")
+
+
 def test_output_formats(tmp_path, csv_file):
     rows = run_batch(read_records(csv_file), workers=1, progress=False)
     csv_out = write_table(rows, tmp_path / "f.csv")
     assert "acid-scavenger-short" in csv_out.read_text()
     json_out = write_table(rows, tmp_path / "f.json")
     assert json.loads(json_out.read_text())[0]["source"].endswith("plans.csv")
+    import pandas as pd
+
+    pq = write_table(rows, tmp_path / "f.parquet")
+    assert "acid-scavenger-short" in set(pd.read_parquet(pq)["rule"])
     with pytest.raises(chemcheck.ChemcheckError, match="unknown output type"):
         write_table(rows, tmp_path / "f.xlsx")
 
