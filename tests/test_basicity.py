@@ -126,7 +126,7 @@ def _accuracy(path, cls=None):
         (None, 0.90),
         (("aniline_primary",), 0.38),
         (("aliphatic_primary", "aliphatic_secondary", "aliphatic_tertiary"), 0.62),
-        (("pyridine",), 0.80),
+        (("pyridine",), 0.65),
         (("imidazole",), 0.80),
         (("amidine_guanidine",), 1.05),
     ],

@@ -120,3 +120,10 @@ RING_NR_SIGMA = {"meta": -0.16, "para": -0.5}
 # rho of the benzylammonium ions against ring substituents, in sigma* units of the CH2-aryl
 # group: rho(ArCH2NH3+) = 1.06 (PDS) divided by rho*(primary amines) = 3.14.
 BENZYL_RING_FACTOR = 1.06 / 3.14
+
+# Substituents on a ring fused to the ring of a pyridine-type N (quinolines, isoquinolines,
+# acridines) act through the fused system at reduced strength: sigma_p at positions conjugated
+# with the N (odd path length), sigma_m otherwise, times this factor per ring away. Our
+# estimate from textbook cases (nitroquinolines about 2.3 units below quinoline; each amino group
+# of 3,6-diaminoacridine about +2 above acridine), not a literature constant.
+FUSED_RING_FACTOR = 0.5

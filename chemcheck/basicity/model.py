@@ -389,6 +389,45 @@ def _hammett_sum(
     return ortho, sigma
 
 
+def _fused_ring_sigma(mol: Chem.Mol, ring: list[int], site: int) -> float:
+    """Hammett sum of substituents on aromatic rings fused to ``ring``, attenuated per ring."""
+    info = mol.GetRingInfo()
+    aromatic_rings = [set(r) for r in info.AtomRings() if all(mol.GetAtomWithIdx(i).GetIsAromatic() for i in r)]
+    base = set(ring)
+    away: dict[int, int] = {}  # atom -> rings away from the site ring
+    frontier = [base]
+    seen_rings = [base]
+    level = 0
+    while frontier and level < 2:
+        level += 1
+        nxt = []
+        for r in aromatic_rings:
+            if r in seen_rings:
+                continue
+            if any(len(r & f) >= 2 for f in frontier):
+                nxt.append(r)
+                seen_rings.append(r)
+                for a in r - set().union(*[x for x in seen_rings if x is not r]):
+                    away.setdefault(a, level)
+        frontier = nxt
+    if not away:
+        return 0.0
+    system = set().union(*seen_rings)
+    total = 0.0
+    for a_idx, lvl in away.items():
+        atom = mol.GetAtomWithIdx(a_idx)
+        for x in atom.GetNeighbors():
+            if x.GetIdx() in system:
+                continue
+            key = classify_substituent(mol, atom, x, system)
+            if key in ("fused", "H"):
+                continue
+            d = len(Chem.GetShortestPath(mol, site, a_idx)) - 1
+            sm, sp, _spm = K.HAMMETT.get(key, (0.0, 0.0, 0.0))
+            total += (K.FUSED_RING_FACTOR ** lvl) * (sp if d % 2 == 1 else sm)
+    return total
+
+
 def aniline(mol: Chem.Mol, n_idx: int) -> tuple[float, str]:
     n = mol.GetAtomWithIdx(n_idx)
     aryls = [x for x in n.GetNeighbors() if x.GetIsAromatic()]
@@ -460,6 +499,7 @@ def azine(mol: Chem.Mol, n_idx: int) -> tuple[float, str]:
         ortho, sigma = _hammett_sum(
             mol, ring6, n_idx, K.ORTHO_PYRIDINE, default_ortho=-1.0, ring_hetero=0.5, para_minus=False
         )
+        sigma += _fused_ring_sigma(mol, ring6, n_idx)
         return pka + ortho - K.PYRIDINE["rho"] * sigma, f"Hammett equation, pyridine-type N (sum sigma {sigma:+.2f})"
     ring5 = _ring_of(mol, n_idx, 5)
     if ring5 is None:
