@@ -10,7 +10,7 @@ from rdkit import Chem
 
 from .. import _rdlog
 
-__all__ = ["Candidate", "Prediction", "same_compound", "canonical"]
+__all__ = ["Candidate", "Prediction", "same_compound", "canonical", "attach"]
 
 
 @dataclass
@@ -45,6 +45,23 @@ def canonical(mol: Chem.Mol, stereo: bool = False) -> str | None:
             return Chem.MolToSmiles(m, isomericSmiles=stereo)
         except Exception:
             return None
+
+
+def attach(mol: Chem.Mol, atom: int, frag: Chem.Mol, frag_atom: int = 0) -> str | None:
+    """Canonical SMILES of ``mol`` with ``frag`` bonded at ``atom`` (one H of it replaced)."""
+    h = mol.GetAtomWithIdx(atom).GetTotalNumHs()
+    combo = Chem.RWMol(Chem.CombineMols(mol, frag))
+    combo.AddBond(atom, mol.GetNumAtoms() + frag_atom, Chem.BondType.SINGLE)
+    a = combo.GetAtomWithIdx(atom)
+    a.SetNumExplicitHs(max(h - 1, 0))
+    a.SetNoImplicit(True)  # the fragment's own atom keeps the hydrogens it was given
+    with _rdlog.captured():
+        try:
+            m = combo.GetMol()
+            Chem.SanitizeMol(m)
+        except Exception:
+            return None
+    return canonical(m)
 
 
 def _key(smiles: str, stereo: bool) -> str | None:

@@ -16,7 +16,7 @@ from __future__ import annotations
 from rdkit import Chem
 
 from .. import _rdlog
-from . import Candidate, canonical, rank_labels
+from . import Candidate, attach, rank_labels
 
 # substituent class -> (strength for ortho/para, strength for meta, deactivating?)
 DIRECTORS = {
@@ -125,6 +125,10 @@ def _distance(ring: list[int], a: int, b: int) -> int:
 
 def predict(mol: Chem.Mol, electrophile_smiles: str, klass: str, bulky: bool) -> list[Candidate]:
     cands = []
+    with _rdlog.captured():
+        frag = Chem.MolFromSmiles(electrophile_smiles)
+    if frag is None:
+        return []
     for ring in _benzene_rings(mol):
         subs = ring_substituents(mol, ring)
         occupied = {idx for idx, _, _, _ in subs}
@@ -159,23 +163,7 @@ def predict(mol: Chem.Mol, electrophile_smiles: str, klass: str, bulky: bool) ->
             if ortho_to >= 2:
                 score -= 1.5
                 reasons.append("between two substituents")
-            rw = Chem.RWMol(mol)
-            frag = Chem.MolFromSmiles(electrophile_smiles)
-            if frag is None:
-                continue
-            base = rw.GetNumAtoms()
-            combo = Chem.RWMol(Chem.CombineMols(rw, frag))
-            combo.AddBond(pos, base, Chem.BondType.SINGLE)
-            a = combo.GetAtomWithIdx(pos)
-            a.SetNumExplicitHs(0)
-            a.SetNoImplicit(False)
-            with _rdlog.captured():
-                try:
-                    m = combo.GetMol()
-                    Chem.SanitizeMol(m)
-                except Exception:
-                    continue
-            smi = canonical(m)
+            smi = attach(mol, pos, frag)
             if smi:
                 cands.append(Candidate(smi, 0, "", "; ".join(reasons) or "unsubstituted ring", score))
     return rank_labels(cands, minor_gap=0.5, none_gap=2.5)

@@ -955,6 +955,7 @@ _HAZARDS = (
 def _hazard_classes(ctx: Context, comp) -> set[str]:
     p = ctx.perception(comp)
     out = set()
+    in_salt = salt_info(ctx, comp)[0]  # the HCl of an amine hydrochloride is not a free strong acid
     for g in p.groups:
         if g.name in ALKYLATING:
             c = comp.mol.GetAtomWithIdx(g.centre)
@@ -968,7 +969,7 @@ def _hazard_classes(ctx: Context, comp) -> set[str]:
             out.add("diazonium")
         elif g.name == "azide":
             out.add("azide")
-        elif g.name in ("hydrogen_halide", "sulfonic_acid", "perfluoro_acid", "nitric_acid"):
+        elif g.name in ("hydrogen_halide", "sulfonic_acid", "perfluoro_acid", "nitric_acid") and not in_salt:
             out.add("strong_acid")
         elif g.name in ("peroxide", "metal_oxo_oxidant", "nitrating_agent"):
             out.add("oxidiser")

@@ -7,7 +7,7 @@ from __future__ import annotations
 from rdkit import Chem
 
 from .. import _rdlog
-from ..regio import Candidate, Prediction, canonical, elimination, rank_labels, same_compound, substitution
+from ..regio import Candidate, Prediction, attach, canonical, elimination, rank_labels, same_compound, substitution
 from ..basicity import _protonate
 from . import Context, rule
 from ._support import ACYLATING, changed_nitrogens, salt_info
@@ -186,24 +186,6 @@ def _acyl_fragment(comp, group) -> tuple[Chem.Mol, int] | None:
         new_centre = keep.index(centre)
         out.GetAtomWithIdx(new_centre).SetNoImplicit(True)
     return out, new_centre
-
-
-def _attach(mol: Chem.Mol, atom: int, frag: Chem.Mol, frag_atom: int) -> str | None:
-    h = mol.GetAtomWithIdx(atom).GetTotalNumHs()
-    combo = Chem.RWMol(Chem.CombineMols(mol, frag))
-    combo.AddBond(atom, mol.GetNumAtoms() + frag_atom, Chem.BondType.SINGLE)
-    a = combo.GetAtomWithIdx(atom)
-    a.SetNumExplicitHs(max(h - 1, 0))
-    a.SetNoImplicit(True)
-    f = combo.GetAtomWithIdx(mol.GetNumAtoms() + frag_atom)
-    f.SetNoImplicit(False)
-    with _rdlog.captured():
-        try:
-            m = combo.GetMol()
-            Chem.SanitizeMol(m)
-        except Exception:
-            return None
-    return canonical(m)
 
 
 # --------------------------------------------------------------------------- ring substitution
@@ -601,11 +583,11 @@ def acylation_chemoselectivity(ctx: Context):
         if frag is not None and (len(sites) > 1 or oxygens):
             cands = []
             for s_ in sites:
-                smi = _attach(sub.mol, s_.atom_index, *frag)
+                smi = attach(sub.mol, s_.atom_index, *frag)
                 if smi:
                     cands.append(Candidate(smi, 0, "", f"acylation at the {s_.kind.replace('_', ' ')} N (pKa {s_.pka:.1f})", _site_score(sub.mol, s_)))
             for o in oxygens:
-                smi = _attach(sub.mol, o, *frag)
+                smi = attach(sub.mol, o, *frag)
                 phenol = any(x.GetIsAromatic() for x in sub.mol.GetAtomWithIdx(o).GetNeighbors())
                 if smi:
                     cands.append(Candidate(smi, 0, "", f"acylation at the {'phenol' if phenol else 'alcohol'} O", -2.0 if phenol else -3.0))
