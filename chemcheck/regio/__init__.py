@@ -10,7 +10,7 @@ from rdkit import Chem
 
 from .. import _rdlog
 
-__all__ = ["Candidate", "Prediction", "same_compound", "canonical", "attach"]
+__all__ = ["Candidate", "Prediction", "same_compound", "has_stereo", "canonical", "attach"]
 
 
 @dataclass
@@ -73,7 +73,15 @@ def _key(smiles: str, stereo: bool) -> str | None:
     return key if stereo else key[:14]
 
 
-def same_compound(a: str, b: str, stereo: bool = False) -> bool:
+def has_stereo(smiles: str) -> bool:
+    return any(ch in smiles for ch in "@/\\")
+
+
+def same_compound(a: str, b: str, stereo: bool | None = False) -> bool:
+    """Same compound by InChIKey. ``stereo=None`` compares stereochemistry only when both
+    SMILES specify some (the comparison rule of the product checks)."""
+    if stereo is None:
+        stereo = has_stereo(a) and has_stereo(b)
     ka, kb = _key(a, stereo), _key(b, stereo)
     return ka is not None and ka == kb
 
@@ -84,7 +92,7 @@ def rank_labels(cands: list[Candidate], *, minor_gap: float, none_gap: float) ->
     out: list[Candidate] = []
     seen: set[str] = set()
     for c in cands:
-        k = _key(c.smiles, False)
+        k = _key(c.smiles, has_stereo(c.smiles))
         if k is None or k in seen:
             continue
         seen.add(k)

@@ -18,7 +18,7 @@ from __future__ import annotations
 from rdkit import Chem
 
 from .. import _rdlog
-from . import Candidate, canonical, rank_labels
+from . import Candidate, canonical, rank_labels, stereo
 
 LEAVING = {
     "halide": "[CX4;!H3:1]-[Cl,Br,I:2]",
@@ -84,26 +84,132 @@ def eliminate(mol: Chem.Mol, alpha: int, leaving: int) -> list[tuple[str, int, i
     return out
 
 
+def _six_ring(mol: Chem.Mol, a: int, b: int) -> tuple[int, ...] | None:
+    for ring in mol.GetRingInfo().AtomRings():
+        if len(ring) == 6 and a in ring and b in ring and not any(mol.GetAtomWithIdx(i).GetIsAromatic() for i in ring):
+            return ring
+    return None
+
+
+class _StereoView:
+    """Anti-periplanar checks for one substrate, embedded once and only when needed."""
+
+    def __init__(self, mol: Chem.Mol):
+        self.mol = mol
+        self._emb = None
+        self._tried = False
+
+    def embedded(self):
+        if not self._tried:
+            self._tried = True
+            self._emb = stereo.embed(self.mol)
+        return self._emb
+
+    def ring_verdict(self, alpha: int, leaving: int, beta: int) -> str | None:
+        """"trans" when a beta-H can be trans-diaxial to the leaving group, "cis" when none
+        can, None when the ring or its configuration is not drawn."""
+        ring = _six_ring(self.mol, alpha, beta)
+        if ring is None:
+            return None
+        a, b = self.mol.GetAtomWithIdx(alpha), self.mol.GetAtomWithIdx(beta)
+        if b.GetTotalNumHs() >= 2:
+            return "trans"  # one of two hydrogens is always on the opposite face
+        if not (stereo.configured(a) and stereo.configured(b)):
+            return None
+        emb = self.embedded()
+        if emb is None:
+            return None
+        hs = emb.hydrogens(beta)
+        faces = [emb.ring_faces_opposite(ring, alpha, leaving, beta, h) for h in hs]
+        if any(f is None for f in faces):
+            return None
+        return "trans" if any(faces) else "cis"
+
+    def open_chain_alkene(self, alpha: int, leaving: int, beta: int) -> str | None:
+        """The alkene geometry an anti-periplanar E2 gives, when both carbons are configured
+        stereocentres on an open chain (stereospecific); None otherwise."""
+        mol = self.mol
+        bond = mol.GetBondBetweenAtoms(alpha, beta)
+        if bond is None or bond.IsInRing():
+            return None
+        a, b = mol.GetAtomWithIdx(alpha), mol.GetAtomWithIdx(beta)
+        if not (stereo.configured(a) and stereo.configured(b)) or b.GetTotalNumHs() != 1:
+            return None
+        emb = self.embedded()
+        if emb is None:
+            return None
+        hs = emb.hydrogens(beta)
+        return emb.anti_alkene(alpha, leaving, beta, hs[0]) if len(hs) == 1 else None
+
+
+def _opposite_geometry(smiles: str) -> str | None:
+    """The same alkene with its one specified C=C geometry inverted."""
+    with _rdlog.captured():
+        m = Chem.MolFromSmiles(smiles)
+        if m is None:
+            return None
+        flipped = False
+        for bd in m.GetBonds():
+            st = bd.GetStereo()
+            if st in (Chem.BondStereo.STEREOE, Chem.BondStereo.STEREOTRANS):
+                bd.SetStereo(Chem.BondStereo.STEREOCIS)
+                flipped = True
+            elif st in (Chem.BondStereo.STEREOZ, Chem.BondStereo.STEREOCIS):
+                bd.SetStereo(Chem.BondStereo.STEREOTRANS)
+                flipped = True
+        return Chem.MolToSmiles(m) if flipped else None
+
+
+_ANTI = (
+    " In a cyclohexane E2 needs the beta-H anti-periplanar (trans-diaxial) to the leaving group."
+)
+
+
 def predict(mol: Chem.Mol, mode: str, why: str) -> list[Candidate]:
-    """Ranked alkenes from every leaving group of ``mol``; ``mode`` is "zaitsev" or "hofmann"."""
+    """Ranked alkenes from every leaving group of ``mol``; ``mode`` is "zaitsev" or "hofmann".
+
+    Drawn configurations are used: in cyclohexanes a beta-CH whose hydrogen is cis to the
+    leaving group gives no E2 alkene; on open chains with both carbons configured the alkene
+    geometry of the anti-periplanar elimination is given, and the other geometry is listed as
+    not formed."""
     cands: list[Candidate] = []
+    view = _StereoView(mol)
     for kind, smarts in LEAVING.items():
         patt = Chem.MolFromSmarts(smarts)
         for match in mol.GetSubstructMatches(patt):
             alpha, lg = match[0], match[1]
-            ring_note = ""
-            if mol.GetAtomWithIdx(alpha).IsInRingSize(6):
-                ring_note = " In a cyclohexane the beta-H must be anti-periplanar (trans-diaxial) to the leaving group."
+            in_ring = mol.GetAtomWithIdx(alpha).IsInRingSize(6)
             for smi, a, b, nh in eliminate(mol, alpha, lg):
-                ring_product = Chem.MolFromSmiles(smi)
                 sub = _alkene_substitution(mol, a, b)
                 conj = _conjugated(mol, a, b)
                 if mode == "zaitsev":
                     score = sub + (1.5 if conj else 0.0) + 0.05 * nh
-                    reason = f"{sub}-substituted alkene{' conjugated' if conj else ''}; {why}{ring_note}"
+                    reason = f"{sub}-substituted alkene{' conjugated' if conj else ''}; {why}"
                 else:
                     score = -sub + (1.0 if conj else 0.0) + 0.05 * nh
-                    reason = f"{sub}-substituted alkene from the most accessible beta-H ({nh} H); {why}{ring_note}"
+                    reason = f"{sub}-substituted alkene from the most accessible beta-H ({nh} H); {why}"
+                verdict = view.ring_verdict(alpha, lg, b) if in_ring else None
+                if verdict == "cis":
+                    cands.append(Candidate(
+                        smi, 0, "",
+                        "the only beta-H on this carbon is cis to the leaving group, so it cannot be "
+                        "anti-periplanar (trans-diaxial): no E2 alkene forms on this side", score - 10.0,
+                    ))
+                    continue
+                if verdict == "trans" and _six_ring(mol, alpha, b) is not None:
+                    reason += "; a beta-H trans to the leaving group can be anti-periplanar (trans-diaxial)"
+                elif in_ring:
+                    reason += "." + _ANTI
+                geo = view.open_chain_alkene(alpha, lg, b) if not in_ring else None
+                if geo:
+                    cands.append(Candidate(geo, 0, "", reason + "; anti-periplanar E2 is stereospecific: this geometry", score))
+                    other = _opposite_geometry(geo)
+                    if other:
+                        cands.append(Candidate(
+                            other, 0, "",
+                            "the other alkene geometry needs a syn-periplanar elimination, which E2 does not take",
+                            score - 10.0,
+                        ))
+                    continue
                 cands.append(Candidate(smi, 0, "", reason, score))
-                del ring_product
     return rank_labels(cands, minor_gap=0.5, none_gap=3.0)

@@ -26,11 +26,11 @@ def _predictions(ctx: Context) -> list[Prediction]:
 def _drawn_match(ctx: Context, cands: list[Candidate]) -> tuple[Candidate | None, object]:
     for prod in ctx.reaction.products:
         for frag in Chem.GetMolFrags(prod.mol, asMols=True, sanitizeFrags=False):
-            smi = canonical(frag)
+            smi = canonical(frag, stereo=True)
             if not smi:
                 continue
             for c in cands:
-                if same_compound(c.smiles, smi):
+                if same_compound(c.smiles, smi, stereo=None):
                     c.drawn = True
                     return c, prod
     return None, None
@@ -47,7 +47,7 @@ def _verdict(rule_obj, pred: Prediction, what: str, atoms):
     sev = "warning" if drawn.label == "minor" else "error"
     word = "a minor product" if drawn.label == "minor" else "not expected to form"
     return rule_obj.finding(
-        f"The {what} drawn, {drawn.smiles}, is {word} of this {pred.reaction_class}: expected major "
+        f"The {what} drawn, {drawn.smiles}, is {word} in this {pred.reaction_class}: expected major "
         f"{expected} ({major[0].reason}). The drawn one: {drawn.reason}.",
         atoms=atoms,
         fix=f"Expect {expected} as the major product" + (f"; {drawn.smiles} forms as a minor product." if drawn.label == "minor" else "."),

@@ -1,0 +1,82 @@
+"""Anti-periplanar E2 with drawn stereochemistry (Clayden, Greeves, Warren, Organic Chemistry,
+2nd ed., OUP 2012, ch. 17): cyclohexanes need the beta-H trans-diaxial to the leaving group;
+open-chain E2 with both carbons configured is stereospecific.
+
+The relative configurations of the test SMILES are checked here by symmetry, independently of
+the product code: a trans-1,2-disubstituted cyclohexane with two equal groups is chiral, the
+cis isomer is meso; meso-1,2-dibromo-1,2-diphenylethane is its own mirror image.
+"""
+
+from rdkit import Chem
+
+import chemcheck
+from chemcheck.regio import elimination, same_compound
+
+TRANS = "C[C@@H]1CCCC[C@H]1Br"
+CIS = "C[C@H]1CCCC[C@H]1Br"
+MESO_DIBROMIDE = "Br[C@@H](c1ccccc1)[C@H](Br)c1ccccc1"
+
+
+def _mirror(smiles: str) -> str:
+    return smiles.replace("@@", "!").replace("@", "@@").replace("!", "@")
+
+
+def _achiral(smiles: str) -> bool:
+    return Chem.CanonSmiles(smiles) == Chem.CanonSmiles(_mirror(smiles))
+
+
+def test_test_substrates_have_the_configuration_named():
+    assert not _achiral(TRANS.replace("Br", "C"))  # trans-1,2-dimethyl: chiral
+    assert _achiral(CIS.replace("Br", "C"))  # cis-1,2-dimethyl: meso
+    assert _achiral(MESO_DIBROMIDE)
+
+
+def _labels(smiles, mode="zaitsev"):
+    return {c.smiles: c.label for c in elimination.predict(Chem.MolFromSmiles(smiles), mode, "test")}
+
+
+def test_trans_cyclohexyl_halide_cannot_give_the_zaitsev_alkene():
+    labels = _labels(TRANS)
+    assert labels["CC1=CCCCC1"] == "none"
+    assert labels["CC1C=CCCC1"] == "major"
+
+
+def test_cis_cyclohexyl_halide_follows_zaitsev():
+    labels = _labels(CIS)
+    assert labels["CC1=CCCCC1"] == "major"
+    assert labels["CC1C=CCCC1"] == "minor"
+
+
+def test_undrawn_configuration_falls_back_to_zaitsev_with_the_note():
+    cands = elimination.predict(Chem.MolFromSmiles("CC1CCCCC1Br"), "zaitsev", "test")
+    assert cands[0].smiles == "CC1=CCCCC1"
+    assert "anti-periplanar" in cands[0].reason
+
+
+def test_hofmann_in_a_cyclohexane_also_needs_a_trans_beta_h():
+    # the trimethylammonium analogue of the trans substrate: the ring CH2 side is the only E2 path
+    labels = _labels(TRANS.replace("Br", "[N+](C)(C)C"), "hofmann")
+    assert labels["CC1=CCCCC1"] == "none"
+
+
+def test_meso_dibromide_gives_the_alkene_with_cis_phenyls():
+    # Newman projection (worked by hand): with H on C2 anti to Br on C1 the two phenyls are
+    # gauche, so they end up cis: Br trans to the phenyl across the C=C, the (E)-bromoalkene
+    cands = elimination.predict(Chem.MolFromSmiles(MESO_DIBROMIDE), "zaitsev", "test")
+    major = [c for c in cands if c.label == "major"]
+    assert len(major) == 1
+    assert same_compound(major[0].smiles, "Br/C(=C/c1ccccc1)c1ccccc1", stereo=True)
+    none = [c for c in cands if c.label == "none"]
+    assert any(same_compound(c.smiles, "Br/C(=C\\c1ccccc1)c1ccccc1", stereo=True) for c in none)
+
+
+def test_chiral_dibromide_gives_the_other_geometry():
+    # the (R,R)/(S,S) diastereomer: phenyls anti in the reacting conformer -> trans phenyls
+    cands = elimination.predict(Chem.MolFromSmiles(MESO_DIBROMIDE.replace("[C@H]", "[C@@H]")), "zaitsev", "test")
+    major = [c for c in cands if c.label == "major"]
+    assert same_compound(major[0].smiles, "Br/C(=C\\c1ccccc1)c1ccccc1", stereo=True)
+
+
+def test_product_drawn_without_geometry_is_not_flagged():
+    r = chemcheck.check(MESO_DIBROMIDE + ".[K+].[OH-]>CCO>BrC(=Cc1ccccc1)c1ccccc1")
+    assert r.by_rule("elimination-regiochemistry") == []
