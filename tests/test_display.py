@@ -67,6 +67,28 @@ def test_atom_coordinates_for_the_renderer():
     assert all(0 <= x <= payload["drawing"]["width"] and 0 <= y <= payload["drawing"]["height"] for x, y in comp0["atoms"])
 
 
+def test_predicted_products_are_drawn_in_the_payload_and_the_static_html():
+    import base64
+    import re
+
+    import jsonschema
+
+    from chemcheck.report import schema
+
+    # no product drawn: the candidates are what the chemist sees
+    b = chemcheck.check("COc1ccccc1.CC(=O)Cl>AlCl3>")._repr_mimebundle_()
+    payload = b[chemcheck.MIME_TYPE]
+    jsonschema.Draft202012Validator(schema()).validate(payload)
+    cands = payload["predictions"][0]["candidates"]
+    drawn = [c for c in cands if c.get("svg")]
+    assert drawn and all(c["label"] != "none" for c in drawn)
+    ET.fromstring(drawn[0]["svg"])
+    imgs = re.findall(r'<img src="data:image/svg\+xml;base64,([^"]+)" alt="([^"]+)"', b["text/html"])
+    alts = {alt for _data, alt in imgs}
+    assert all(c["smiles"] in alts for c in drawn)
+    assert any(base64.b64decode(data).decode().startswith("<svg") for data, _ in imgs)
+
+
 def test_3d_view_has_hydrogens_and_highlights():
     v = view3d(chemcheck.check(FLAGGED), 0)
     b = v._repr_mimebundle_()

@@ -3,14 +3,41 @@
 from __future__ import annotations
 
 from ..report import MIME_TYPE
-from .draw import draw_scheme
+from .draw import draw_component, draw_scheme
 from .html import render_html
 
 __all__ = ["mimebundle", "payload_with_drawing"]
 
 
+MAX_CANDIDATE_DRAWINGS = 4  # per predicted class: the major and the leading minor products
+CANDIDATE_SIZE = (170, 130)
+
+
+def _draw_candidates(payload: dict) -> None:
+    """An SVG beside each leading candidate of the predicted products (major and minor)."""
+    from rdkit import Chem
+
+    from .. import _rdlog
+
+    for pred in payload.get("predictions") or []:
+        drawn = 0
+        for cand in pred["candidates"]:
+            if cand["label"] == "none" or drawn >= MAX_CANDIDATE_DRAWINGS:
+                continue
+            with _rdlog.captured():
+                mol = Chem.MolFromSmiles(cand["smiles"])
+            if mol is None:
+                continue
+            try:
+                cand["svg"] = draw_component(mol, size=CANDIDATE_SIZE).svg
+            except Exception:  # a drawing must never cost the user the report
+                continue
+            drawn += 1
+
+
 def payload_with_drawing(report) -> tuple[dict, str | None]:
     payload = report.to_dict()
+    _draw_candidates(payload)
     try:
         scheme = draw_scheme(report)
     except Exception:  # drawing must never cost the user the report

@@ -141,9 +141,10 @@ def html_sections(payload: dict) -> list[str]:
         out.append("<h4>Expected products</h4><ul>")
         for p in preds:
             for cand in p["candidates"]:
+                picture = f" {_img(cand['svg'], cand['smiles'])}" if cand.get("svg") else ""
                 out.append(
                     f"<li>{escape(p['reaction_class'])}: <strong>{escape(cand['label'])}</strong> "
-                    f"<code>{escape(cand['smiles'])}</code> — {escape(cand['reason'])}</li>"
+                    f"<code>{escape(cand['smiles'])}</code> — {escape(cand['reason'])}{picture}</li>"
                 )
         out.append("</ul>")
     scale = payload.get("scale")

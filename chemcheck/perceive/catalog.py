@@ -123,6 +123,13 @@ GROUPS: tuple[GroupDef, ...] = (
     GroupDef("nitrate_salt", "[NX3+](=[OX1])([OX1-])[OX1-]", "nitrate salt"),
     GroupDef("halogen", "[Cl,Br,I;X1]-[Cl,Br,I;X1]", "elemental halogen or interhalogen"),
     GroupDef("n_halo", "[Cl,Br,I]-[#7]", "N-halo reagent (NBS type)"),
+    GroupDef(
+        "sulfur_trioxide",
+        "[$([SX3](=[OX1])(=[OX1])=[OX1]),$([SX4](=[OX1])(=[OX1])([OX1-])[#7+])]",
+        "sulfur trioxide or an SO3-amine complex",
+    ),
+    GroupDef("chlorosulfonic_acid", "[SX4](=[OX1])(=[OX1])(Cl)[OX2H1]", "chlorosulfonic acid"),
+    GroupDef("sulfuric_acid", "[SX4](=[OX1])(=[OX1])([OX2H1])[OX2H1]", "sulfuric acid"),
     GroupDef("sulfuryl_chloride", "[SX4](=[OX1])(=[OX1])(Cl)Cl", "sulfuryl chloride"),
     # hazards
     GroupDef("diazonium", "[NX2+]#[NX1]", "diazonium ion"),

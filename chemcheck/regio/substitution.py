@@ -123,12 +123,26 @@ def _distance(ring: list[int], a: int, b: int) -> int:
     return min(d, 6 - d)
 
 
-def predict(mol: Chem.Mol, electrophile_smiles: str, klass: str, bulky: bool) -> list[Candidate]:
-    cands = []
+Electrophile = tuple[str, float, str]  # SMILES rooted at the bonding atom, score bonus, note
+
+
+def predict(mol: Chem.Mol, electrophiles: str | list[Electrophile], klass: str, bulky: bool) -> list[Candidate]:
+    """Ranked products of substitution at every open position of every benzene ring.
+
+    ``electrophiles`` is one SMILES (rooted at the atom that bonds to the ring) or a list of
+    (SMILES, score bonus, note) when the electrophile itself has alternatives (a rearranged
+    carbocation, a sulfonic acid or its chloride)."""
+    if isinstance(electrophiles, str):
+        electrophiles = [(electrophiles, 0.0, "")]
+    frags = []
     with _rdlog.captured():
-        frag = Chem.MolFromSmiles(electrophile_smiles)
-    if frag is None:
+        for smi, bonus, note in electrophiles:
+            frag = Chem.MolFromSmiles(smi)
+            if frag is not None:
+                frags.append((frag, bonus, note))
+    if not frags:
         return []
+    cands = []
     for ring in _benzene_rings(mol):
         subs = ring_substituents(mol, ring)
         occupied = {idx for idx, _, _, _ in subs}
@@ -163,7 +177,112 @@ def predict(mol: Chem.Mol, electrophile_smiles: str, klass: str, bulky: bool) ->
             if ortho_to >= 2:
                 score -= 1.5
                 reasons.append("between two substituents")
-            smi = attach(mol, pos, frag)
-            if smi:
-                cands.append(Candidate(smi, 0, "", "; ".join(reasons) or "unsubstituted ring", score))
+            where = "; ".join(reasons) or "unsubstituted ring"
+            for frag, bonus, note in frags:
+                smi = attach(mol, pos, frag)
+                if smi:
+                    cands.append(Candidate(smi, 0, "", f"{note}; {where}" if note else where, score + bonus))
     return rank_labels(cands, minor_gap=0.5, none_gap=2.5)
+
+
+# --------------------------------------------------------------------------- carbocations
+def _carbon_degree(mol: Chem.Mol, idx: int) -> int:
+    return sum(1 for n in mol.GetAtomWithIdx(idx).GetNeighbors() if n.GetAtomicNum() == 6)
+
+
+def _stabilised(mol: Chem.Mol, idx: int) -> bool:
+    """Benzylic or allylic centres (and heteroatom-stabilised ones) do not rearrange."""
+    for n in mol.GetAtomWithIdx(idx).GetNeighbors():
+        if n.GetIsAromatic() or n.GetAtomicNum() in (7, 8, 16):
+            return True
+        if any(b.GetBondTypeAsDouble() > 1 for b in n.GetBonds()):
+            return True
+    return False
+
+
+def _rooted(mol: Chem.Mol, centre: int) -> str | None:
+    """SMILES of the alkyl group with ``centre`` carrying one hydrogen fewer, rooted there."""
+    rw = Chem.RWMol(mol)
+    a = rw.GetAtomWithIdx(centre)
+    h = a.GetTotalNumHs()
+    if h == 0:
+        return None
+    a.SetNumExplicitHs(h - 1)
+    a.SetNoImplicit(True)
+    with _rdlog.captured():
+        try:
+            m = rw.GetMol()
+            Chem.SanitizeMol(m)
+            return Chem.MolToSmiles(m, rootedAtAtom=centre)
+        except Exception:
+            return None
+
+
+def alkyl_cations(alkane: Chem.Mol, centre: int) -> list[Electrophile]:
+    """The alkyl groups a Friedel-Crafts alkylation transfers from the carbocation (or
+    polarised C-X...Lewis acid complex) at ``centre`` of the parent alkane: the carbon skeleton
+    as drawn, and the one reached by 1,2-hydride or 1,2-methyl shifts to a more substituted
+    (more stable) cation, tertiary > secondary > primary.
+
+    Primary halides beyond ethyl rearrange (1-chloropropane gives mainly isopropylbenzene,
+    isobutyl chloride tert-butylbenzene); neopentyl gives the tert-pentyl product by a methyl
+    shift. Methyl, ethyl, benzylic and allylic cations do not rearrange. (G. A. Olah,
+    *Friedel-Crafts and Related Reactions*, Wiley 1963-65; Clayden, Greeves, Warren, *Organic
+    Chemistry*, 2nd ed., OUP 2012, ch. 21.)"""
+    drawn = _rooted(alkane, centre)
+    if drawn is None:
+        return []
+    out: list[Electrophile] = []
+    mol, at = Chem.Mol(alkane), centre
+    shifts = []
+    methyl_shift = False
+    for _ in range(3):
+        if _stabilised(mol, at):
+            break
+        here = _carbon_degree(mol, at)
+        if here >= 3:
+            break
+        best = None
+        for n in mol.GetAtomWithIdx(at).GetNeighbors():
+            if n.GetAtomicNum() != 6 or n.GetIsAromatic() or n.GetHybridization() != Chem.HybridizationType.SP3:
+                continue
+            deg = _carbon_degree(mol, n.GetIdx())
+            if n.GetTotalNumHs() > 0 and deg > here and (best is None or deg > best[1]):
+                best = (n.GetIdx(), deg, "hydride")
+            elif n.GetTotalNumHs() == 0 and deg == 4 and best is None:
+                best = (n.GetIdx(), 3, "methyl")
+        if best is None:
+            break
+        nxt, _deg, how = best
+        if how == "methyl":
+            rw = Chem.RWMol(mol)
+            me = next(x.GetIdx() for x in rw.GetAtomWithIdx(nxt).GetNeighbors()
+                      if x.GetIdx() != at and x.GetAtomicNum() == 6 and x.GetDegree() == 1)
+            rw.RemoveBond(nxt, me)
+            rw.AddBond(at, me, Chem.BondType.SINGLE)
+            with _rdlog.captured():
+                m2 = rw.GetMol()
+                Chem.SanitizeMol(m2)
+            mol = m2
+            methyl_shift = True
+        shifts.append(how)
+        at = nxt
+    start = _carbon_degree(alkane, centre)
+    final = _carbon_degree(mol, at) if shifts else start
+    if not shifts:
+        return [(drawn, 0.0, "alkyl group as drawn (the carbocation does not rearrange)")]
+    moved = _rooted(mol, at)
+    kinds = {1: "primary", 2: "secondary", 3: "tertiary"}
+    gain = 0.8 * (min(final, 3) - min(max(start, 1), 3)) + (1.0 if methyl_shift else 0.0)
+    how = " then ".join(
+        f"1,2-{k} shift" if n == 1 else f"{n} successive 1,2-{k} shifts"
+        for k, n in ((k, shifts.count(k)) for k in dict.fromkeys(shifts))
+    )
+    if moved:
+        out.append((moved, gain, f"rearranged alkyl group: the {kinds[min(max(start, 1), 3)]} carbocation becomes "
+                    f"{kinds[min(final, 3)]} by a {how}"))
+    if gain >= 2.5:
+        out.append((drawn, 0.0, "unrearranged alkyl group: not expected, the primary carbocation rearranges"))
+    else:
+        out.append((drawn, 0.0, "unrearranged alkyl group (formed in part, more at low temperature)"))
+    return out

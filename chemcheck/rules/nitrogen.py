@@ -925,6 +925,12 @@ _HAZARDS = (
         "it dry, add it in portions, and quench slowly into ice.",
     ),
     (
+        "sulfonating",
+        "Sulfonating agent ({names}): sulfur trioxide, oleum and chlorosulfonic acid are highly corrosive and react "
+        "violently with water (sulfuric acid mist; HCl gas from chlorosulfonic acid); keep everything dry, add the "
+        "agent slowly to the cooled substrate, and quench by slow addition onto ice.",
+    ),
+    (
         "diazonium",
         "Diazonium salt ({names}): keep it cold (0–5 °C), use it in solution straight away and never isolate it dry; "
         "dry diazonium salts can detonate.",
@@ -965,6 +971,8 @@ def _hazard_classes(ctx: Context, comp) -> set[str]:
             out.add("acid_chloride")
         elif g.name == "lewis_acid" and g.detail in _WATER_REACTIVE_LA:
             out.add("lewis_acid")
+        elif g.name in ("sulfur_trioxide", "chlorosulfonic_acid"):
+            out.add("sulfonating")
         elif g.name == "diazonium":
             out.add("diazonium")
         elif g.name == "azide":
@@ -975,6 +983,8 @@ def _hazard_classes(ctx: Context, comp) -> set[str]:
             out.add("oxidiser")
         elif g.name in ("boron_hydride", "aluminium_hydride", "hydride_ion"):
             out.add("hydride")
+    if "sulfonating" in out:
+        out -= {"acid_chloride", "strong_acid"}  # the sulfonating-agent caution covers both
     return out
 
 

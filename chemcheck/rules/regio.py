@@ -214,23 +214,81 @@ def _ring_class(ctx: Context):
             rw = Chem.RWMol(c.mol)
             rw.RemoveAtom(g.atoms[-1])
             with _rdlog.captured():
-                m = rw.GetMol()
-                m.UpdatePropertyCache(strict=False)
+                alkane = rw.GetMol()
                 centre = g.centre if g.centre < g.atoms[-1] else g.centre - 1
-                m.GetAtomWithIdx(centre).SetNoImplicit(True)
-                smi = Chem.MolToSmiles(m, rootedAtAtom=centre)
-            return "Friedel-Crafts alkylation", smi, f"alkyl halide {c.label} with a Lewis acid (carbocation rearrangements not considered)", True, c
+                alkane.GetAtomWithIdx(centre).SetNoImplicit(False)
+                alkane.GetAtomWithIdx(centre).SetNumExplicitHs(0)
+                try:
+                    Chem.SanitizeMol(alkane)
+                except Exception:
+                    continue
+            electros = substitution.alkyl_cations(alkane, centre)
+            if not electros:
+                continue
+            note = (
+                "; the carbocation rearranges (1,2-shift) before it attacks the ring"
+                if len(electros) > 1 else ""
+            )
+            return (
+                "Friedel-Crafts alkylation", electros,
+                f"alkyl halide {c.label} with a Lewis acid{note}; the alkylated product is more reactive than the "
+                "starting arene, so polyalkylation competes (use the arene in excess)", True, c,
+            )
     if names & {"halogen", "n_halo"}:
         for c in comps:
             for g in ctx.perception(c).groups_named("halogen", "n_halo"):
                 x = c.mol.GetAtomWithIdx(g.centre).GetSymbol()
                 kind = {"Br": "bromination", "Cl": "chlorination", "I": "iodination"}[x]
                 return kind, x, f"halogen source {c.label}" + (" with a Lewis acid" if la else ""), la, c
-    if "sulfonic_acid" in names and any(
-        any(a.GetSymbol() == "S" for a in p.mol.GetAtoms()) and not any(a.GetSymbol() == "S" for r in rxn.reactants for a in r.mol.GetAtoms() if r.kind is None and r.role == "reactant" and ctx.perception(r).has("ketone"))
-        for p in rxn.products
-    ):
-        return "sulfonation", "S(=O)(=O)O", "sulfuric acid (sulfonation)", la, None
+    sulfonation = _sulfonation(ctx, comps, names)
+    if sulfonation is not None:
+        electros, evidence, agent = sulfonation
+        return "sulfonation", electros, evidence, la, agent
+    return None
+
+
+_SULFONIC = [
+    ("S(=O)(=O)O", 0.0, "sulfonic acid"),
+]
+_ARYL_SULFONYL = Chem.MolFromSmarts("c[SX4](=[OX1])(=[OX1])[OX2H1,OX1-,Cl]")
+
+
+def _aryl_sulfonyl_count(mol: Chem.Mol) -> int:
+    return len(mol.GetSubstructMatches(_ARYL_SULFONYL))
+
+
+def _sulfonation(ctx: Context, comps, names):
+    """(electrophiles, evidence, agent component) of a sulfonation, or None.
+
+    Recognised from a sulfonating agent (sulfur trioxide or oleum, an SO3-amine complex,
+    chlorosulfonic acid), or from sulfuric acid when the drawn product gains an aryl sulfonic
+    acid (or its salt or chloride), or when an arene meets sulfuric acid and nothing else."""
+    rxn = ctx.reaction
+    agent = next((c for c in comps if ctx.perception(c).has("sulfur_trioxide", "chlorosulfonic_acid")), None)
+    if agent is not None:
+        if ctx.perception(agent).has("chlorosulfonic_acid"):
+            electros = [
+                ("S(=O)(=O)Cl", 0.0, "chlorosulfonation (excess chlorosulfonic acid gives the sulfonyl chloride)"),
+                ("S(=O)(=O)O", 0.0, "sulfonic acid (one equivalent of chlorosulfonic acid)"),
+            ]
+            return electros, f"chlorosulfonic acid {agent.label} (chlorosulfonation)", agent
+        return list(_SULFONIC), f"sulfur trioxide source {agent.label} (sulfonation)", agent
+    acid = next((c for c in comps if ctx.perception(c).has("sulfuric_acid")), None)
+    if acid is None:
+        return None
+    before = sum(_aryl_sulfonyl_count(c.mol) for c in rxn.reactants)
+    gained = rxn.products and any(_aryl_sulfonyl_count(p.mol) > before for p in rxn.products)
+    others = [c for c in rxn.reactants if c.index != acid.index]
+    alone = (
+        not rxn.products and len(others) == 1
+        and not ctx.perception(others[0]).has(
+            "alcohol", "carboxylic_acid", "ester", "amide", "nitrile", "alkene", "aldehyde", "ketone", "acid_halide",
+            "anhydride",
+        )
+    )
+    if gained or alone:
+        why = "the drawn product gains an aryl sulfonic acid" if gained else "an arene in concentrated sulfuric acid and nothing else"
+        return list(_SULFONIC), f"sulfuric acid {acid.label}: {why} (sulfonation)", acid
     return None
 
 
@@ -250,8 +308,11 @@ def ring_substitution_regiochemistry(ctx: Context):
     What it flags
         A nitration, halogenation, sulfonation or Friedel–Crafts acylation or alkylation whose
         drawn product carries the new group at a position the ring's substituents do not favour:
-        a warning for a minor isomer, an error for one that does not form. Also anilines in
-        strongly acidic media (the anilinium ion directs meta and the ring is oxidised) and free
+        a warning for a minor isomer, an error for one that does not form. Friedel–Crafts
+        alkylations are predicted with the carbocation rearranged by 1,2-hydride or methyl shifts
+        (n-propyl to isopropyl, neopentyl to tert-pentyl). Sulfonation is recognised from sulfur
+        trioxide, oleum, SO3–amine complexes and chlorosulfonic acid, or from sulfuric acid when
+        the product gains an aryl sulfonic acid. Also anilines in strongly acidic media (the anilinium ion directs meta and the ring is oxidised) and free
         anilines with bromine (all three ortho/para positions react).
 
     Why it matters
@@ -305,7 +366,7 @@ def ring_substitution_regiochemistry(ctx: Context):
             fix="For one bromine use the acetanilide (then hydrolyse), or NBS at low temperature.",
             severity="warning",
         )
-    bulky = klass.startswith("Friedel-Crafts")
+    bulky = klass.startswith("Friedel-Crafts") or klass == "sulfonation"  # acylium, SO3: para
     cands = substitution.predict(mol, electro, klass, bulky)
     if not cands:
         return

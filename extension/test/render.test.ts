@@ -111,3 +111,26 @@ test('finding keys agree with the Python side (chemcheck.review.finding_key)', (
   const f = { rule: 'x-y', severity: 'info' as const, title: '', message: 'At most about 50 % conversion – K ≈ 10^5 😀', atoms: [] as [number, number][], fix: null, references: [] };
   assert.equal(findingKey(f), 'x-y#82dd598e');
 });
+
+test('predicted products show their drawing as an image, the SMILES as text', () => {
+  const svg = '<svg xmlns="http://www.w3.org/2000/svg" width="10" height="10"></svg>';
+  const r = report({
+    predictions: [
+      {
+        reaction_class: 'Friedel-Crafts acylation',
+        candidates: [
+          { smiles: 'COc1ccc(C(C)=O)cc1', rank: 1, label: 'major', reason: 'para to OMe', svg },
+          { smiles: HOSTILE, rank: 2, label: 'minor', reason: HOSTILE, svg: null }
+        ]
+      }
+    ]
+  });
+  const node = renderReport(r);
+  const items = [...node.querySelectorAll('.cc-candidate')];
+  assert.equal(items.length, 2);
+  const img = items[0].querySelector('img') as HTMLImageElement;
+  assert.ok(img.src.startsWith('data:image/svg+xml'));
+  assert.equal(img.alt, 'COc1ccc(C(C)=O)cc1');
+  assert.equal(items[1].querySelectorAll('img').length, 0);
+  assert.ok((items[1].textContent ?? '').includes('<script>'));
+});

@@ -1,4 +1,4 @@
-"""Anti-periplanar E2 with drawn stereochemistry (Clayden, Greeves, Warren, Organic Chemistry,
+"""Product predictions: anti-periplanar E2 with drawn stereochemistry (Clayden, Greeves, Warren, Organic Chemistry,
 2nd ed., OUP 2012, ch. 17): cyclohexanes need the beta-H trans-diaxial to the leaving group;
 open-chain E2 with both carbons configured is stereospecific.
 
@@ -80,3 +80,36 @@ def test_chiral_dibromide_gives_the_other_geometry():
 def test_product_drawn_without_geometry_is_not_flagged():
     r = chemcheck.check(MESO_DIBROMIDE + ".[K+].[OH-]>CCO>BrC(=Cc1ccccc1)c1ccccc1")
     assert r.by_rule("elimination-regiochemistry") == []
+
+
+def test_fischer_esterification_is_not_taken_for_a_sulfonation():
+    r = chemcheck.check("OC(=O)c1ccccc1.CO>OS(=O)(=O)O>COC(=O)c1ccccc1")
+    assert not r.to_dict().get("predictions")
+
+
+# Friedel-Crafts carbocations (Clayden ch. 21; Olah, Friedel-Crafts and Related Reactions;
+# common practice): which alkyl group the arene receives from each alkyl halide skeleton.
+def test_primary_propyl_rearranges_to_isopropyl():
+    from chemcheck.regio.substitution import alkyl_cations
+
+    groups = alkyl_cations(Chem.MolFromSmiles("CCC"), 0)
+    assert "hydride shift" in groups[0][2] and groups[0][1] > groups[1][1]
+    m = Chem.MolFromSmiles(groups[0][0])  # rooted at the bonding atom: isopropyl, two carbons on it
+    assert sum(1 for n in m.GetAtomWithIdx(0).GetNeighbors() if n.GetAtomicNum() == 6) == 2
+
+
+def test_neopentyl_gives_a_tertiary_centre_by_a_methyl_shift():
+    from chemcheck.regio.substitution import alkyl_cations
+
+    groups = alkyl_cations(Chem.MolFromSmiles("CC(C)(C)C"), 0)
+    assert "methyl shift" in groups[0][2]
+    # the bonding atom of the rearranged group carries three carbons (tert-pentyl)
+    m = Chem.MolFromSmiles(groups[0][0])
+    assert sum(1 for n in m.GetAtomWithIdx(0).GetNeighbors() if n.GetAtomicNum() == 6) == 3
+
+
+def test_methyl_ethyl_and_benzyl_do_not_rearrange():
+    from chemcheck.regio.substitution import alkyl_cations
+
+    for smi in ("C", "CC", "Cc1ccccc1"):
+        assert len(alkyl_cations(Chem.MolFromSmiles(smi), 0)) == 1, smi
