@@ -113,3 +113,19 @@ def test_methyl_ethyl_and_benzyl_do_not_rearrange():
 
     for smi in ("C", "CC", "Cc1ccccc1"):
         assert len(alkyl_cations(Chem.MolFromSmiles(smi), 0)) == 1, smi
+
+
+def test_isomer_findings_highlight_the_drawn_and_the_expected_positions():
+    # anisole (atoms: C0 O1 c2..c7); meta acylation drawn, para expected
+    r = chemcheck.check("COc1ccccc1.CC(=O)Cl>AlCl3>COc1cccc(C(C)=O)c1")
+    f = r.by_rule("ring-substitution-regiochemistry")[0]
+    atoms = {a for c, a in f.atoms if c == 0}
+    para, meta = 5, {4, 6}
+    assert para in atoms and atoms & meta
+
+
+def test_alkene_findings_highlight_the_carbons_that_lose_h_and_the_leaving_group():
+    r = chemcheck.check("CCCC(C)[N+](C)(C)C.[OH-]>>CC=CCC")
+    f = r.by_rule("elimination-regiochemistry")[0]
+    atoms = {a for c, a in f.atoms if c == 0}
+    assert {2, 3, 4, 5} <= atoms  # beta C2 (drawn), alpha C3, beta C4 (methyl, expected), N5

@@ -21,6 +21,7 @@ class Candidate:
     reason: str
     score: float = 0.0
     drawn: bool = False
+    atoms: tuple[int, ...] = ()  # substrate atoms where the change happens (for highlighting)
 
     def to_dict(self) -> dict:
         return {"smiles": self.smiles, "rank": self.rank, "label": self.label, "reason": self.reason, "drawn": self.drawn}

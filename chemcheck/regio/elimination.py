@@ -194,6 +194,7 @@ def predict(mol: Chem.Mol, mode: str, why: str) -> list[Candidate]:
                         smi, 0, "",
                         "the only beta-H on this carbon is cis to the leaving group, so it cannot be "
                         "anti-periplanar (trans-diaxial): no E2 alkene forms on this side", score - 10.0,
+                        atoms=(alpha, b),
                     ))
                     continue
                 if verdict == "trans" and _six_ring(mol, alpha, b) is not None:
@@ -202,14 +203,14 @@ def predict(mol: Chem.Mol, mode: str, why: str) -> list[Candidate]:
                     reason += "." + _ANTI
                 geo = view.open_chain_alkene(alpha, lg, b) if not in_ring else None
                 if geo:
-                    cands.append(Candidate(geo, 0, "", reason + "; anti-periplanar E2 is stereospecific: this geometry", score))
+                    cands.append(Candidate(geo, 0, "", reason + "; anti-periplanar E2 is stereospecific: this geometry", score, atoms=(alpha, b)))
                     other = _opposite_geometry(geo)
                     if other:
                         cands.append(Candidate(
                             other, 0, "",
                             "the other alkene geometry needs a syn-periplanar elimination, which E2 does not take",
-                            score - 10.0,
+                            score - 10.0, atoms=(alpha, b),
                         ))
                     continue
-                cands.append(Candidate(smi, 0, "", reason, score))
+                cands.append(Candidate(smi, 0, "", reason, score, atoms=(alpha, b)))
     return rank_labels(cands, minor_gap=0.5, none_gap=3.0)

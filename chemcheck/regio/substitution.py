@@ -181,7 +181,7 @@ def predict(mol: Chem.Mol, electrophiles: str | list[Electrophile], klass: str, 
             for frag, bonus, note in frags:
                 smi = attach(mol, pos, frag)
                 if smi:
-                    cands.append(Candidate(smi, 0, "", f"{note}; {where}" if note else where, score + bonus))
+                    cands.append(Candidate(smi, 0, "", f"{note}; {where}" if note else where, score + bonus, atoms=(pos,)))
     return rank_labels(cands, minor_gap=0.5, none_gap=2.5)
 
 

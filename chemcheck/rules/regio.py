@@ -36,13 +36,16 @@ def _drawn_match(ctx: Context, cands: list[Candidate]) -> tuple[Candidate | None
     return None, None
 
 
-def _verdict(rule_obj, pred: Prediction, what: str, atoms):
-    """The finding for a drawn minor (warning) or impossible (error) product."""
+def _verdict(rule_obj, pred: Prediction, what: str, atoms=()):
+    """The finding for a drawn minor (warning) or impossible (error) product. Highlights the
+    substrate atoms where the drawn and the expected changes happen, then ``atoms``."""
     cands = pred.candidates
     drawn = next((c for c in cands if c.drawn), None)
     if drawn is None or drawn.label == "major":
         return None
     major = [c for c in cands if c.label == "major"]
+    where = list(dict.fromkeys([(pred.substrate, a) for a in drawn.atoms + major[0].atoms] + list(atoms)))
+    atoms = where
     expected = ", ".join(c.smiles for c in major)
     sev = "warning" if drawn.label == "minor" else "error"
     word = "a minor product" if drawn.label == "minor" else "not expected to form"
@@ -342,8 +345,6 @@ def ring_substitution_regiochemistry(ctx: Context):
     sub = _aromatic_substrate(ctx, elec_comp)
     if sub is None:
         return
-    if any(len(frag.GetAtoms()) and False for frag in []):
-        pass
     mol = sub.mol
     free_anilines = [s for s in ctx.sites(sub) if s.kind == "aryl_amine" and s.pka is not None]
     acidic = klass in ("nitration", "sulfonation")
@@ -380,7 +381,7 @@ def ring_substitution_regiochemistry(ctx: Context):
             if c.label == "minor" and "para" in c.reason:
                 c.label = "major"
         return
-    f = _verdict(r, pred, "isomer", [(sub.index, a.GetIdx()) for a in sub.mol.GetAtoms() if a.GetIsAromatic()][:0])
+    f = _verdict(r, pred, "isomer")
     if f is not None:
         yield f
 
@@ -646,12 +647,12 @@ def acylation_chemoselectivity(ctx: Context):
             for s_ in sites:
                 smi = attach(sub.mol, s_.atom_index, *frag)
                 if smi:
-                    cands.append(Candidate(smi, 0, "", f"acylation at the {s_.kind.replace('_', ' ')} N (pKa {s_.pka:.1f})", _site_score(sub.mol, s_)))
+                    cands.append(Candidate(smi, 0, "", f"acylation at the {s_.kind.replace('_', ' ')} N (pKa {s_.pka:.1f})", _site_score(sub.mol, s_), atoms=(s_.atom_index,)))
             for o in oxygens:
                 smi = attach(sub.mol, o, *frag)
                 phenol = any(x.GetIsAromatic() for x in sub.mol.GetAtomWithIdx(o).GetNeighbors())
                 if smi:
-                    cands.append(Candidate(smi, 0, "", f"acylation at the {'phenol' if phenol else 'alcohol'} O", -2.0 if phenol else -3.0))
+                    cands.append(Candidate(smi, 0, "", f"acylation at the {'phenol' if phenol else 'alcohol'} O", -2.0 if phenol else -3.0, atoms=(o,)))
             ranked = rank_labels(cands, minor_gap=1.0, none_gap=6.0)
             if ranked:
                 _drawn_match(ctx, ranked)
