@@ -35,6 +35,8 @@ class _Collector(logging.Handler):
 
 def _install() -> None:
     global _installed
+    if _installed:
+        return
     with _lock:
         if _installed:
             return

@@ -113,14 +113,35 @@ def _by_product_table() -> dict[frozenset, list[Missing]]:
     return table
 
 
+@lru_cache(maxsize=16)
+def _coefficient_sets(n: int) -> tuple[tuple[int, ...], ...]:
+    """Coefficients 1-3 for each of up to six species (1 each beyond), smallest sums first."""
+    ranges = [range(1, 4)] * n if n <= 6 else [range(1, 2)] * n
+    return tuple(sorted(itertools.product(*ranges), key=sum))
+
+
+_COUNTS: dict[str, Counter] = {}
+
+
+def _counts_of(component: Component) -> Counter:
+    """Element counts of a component, remembered by its canonical SMILES."""
+    hit = _COUNTS.get(component.smiles)
+    if hit is None:
+        hit = element_counts(component.mol)
+        if len(_COUNTS) > 4096:
+            _COUNTS.clear()
+        _COUNTS[component.smiles] = hit
+    return Counter(hit)
+
+
 def balance(reaction: Reaction) -> Balance:
     reactants = reaction.reactants
     products = reaction.products
     if not products:
         return Balance(False, False, checked=False)
     species: list[tuple[Component, int]] = [(c, 1) for c in reactants] + [(c, -1) for c in products]
-    vectors = [element_counts(c.mol) for c, _ in species]
-    charges = [_charge(c.mol) for c, _ in species]
+    vectors = [_counts_of(c) for c, _ in species]
+    charges = [Chem.GetFormalCharge(c.mol) for c, _ in species]
 
     def diff_for(coeffs: tuple[int, ...]) -> tuple[Counter, int]:
         total: Counter = Counter()
@@ -146,12 +167,11 @@ def balance(reaction: Reaction) -> Balance:
 
     best = None
     n = len(species)
-    ranges = [range(1, 4)] * n if n <= 6 else [range(1, 2)] * n
-    for coeffs in itertools.product(*ranges):
-        diff, q = diff_for(coeffs)
+    for coeffs in _coefficient_sets(n):
         extra = sum(coeffs) - n  # drawn coefficients (all 1) are preferred
-        if best is not None and extra >= best[0] + 1e-9 and extra > best[0]:
-            continue
+        if best is not None and extra > best[0]:
+            break  # the sets come in order of their sum: none of the rest can do better
+        diff, q = diff_for(coeffs)
         if not _key(diff) and q == 0:
             cand = (extra, 0, coeffs, [])
         else:

@@ -17,6 +17,7 @@ from rdkit import Chem
 from rdkit.Chem import rdFMCS
 
 from . import _rdlog
+from .perceive import canonical_key
 from .reaction import Reaction
 
 __all__ = ["NewBond", "new_bonds_at_nitrogen", "atom_correspondence"]
@@ -39,13 +40,19 @@ class NewBond:
     kind_after: str = ""
 
 
-@lru_cache(maxsize=256)
+@lru_cache(maxsize=2048)
 def _mcs_map(r_smiles: str, p_smiles: str) -> tuple[tuple[int, int], ...]:
     with _rdlog.captured():
         r = Chem.MolFromSmiles(r_smiles)
         p = Chem.MolFromSmiles(p_smiles)
         if r is None or p is None or r.GetNumAtoms() < 2:
             return ()
+        # the whole reactant inside the product (an amine that is acylated or alkylated): the
+        # common substructure is the reactant itself, found without the MCS search
+        whole = p.GetSubstructMatches(r, uniquify=False, maxMatches=200)
+        if whole:
+            rm = tuple(range(r.GetNumAtoms()))
+            return tuple(zip(rm, min(whole, key=lambda pm: _placement_cost(r, p, rm, pm))))
         res = rdFMCS.FindMCS(
             [r, p],
             timeout=MCS_TIMEOUT_S,
@@ -65,17 +72,18 @@ def _mcs_map(r_smiles: str, p_smiles: str) -> tuple[tuple[int, int], ...]:
     if not rm or not pms:
         return ()
 
-    def cost(pm) -> int:
-        # the chemically closest placement changes the fewest atoms (principle of minimal
-        # chemical distance): compare heavy-neighbour and hydrogen counts atom by atom
-        total = 0
-        for a, b in zip(rm, pm):
-            ra, pa = r.GetAtomWithIdx(a), p.GetAtomWithIdx(b)
-            total += abs(ra.GetDegree() - pa.GetDegree()) + abs(ra.GetTotalNumHs() - pa.GetTotalNumHs())
-        return total
-
-    best = min(pms, key=cost)
+    best = min(pms, key=lambda pm: _placement_cost(r, p, rm, pm))
     return tuple(zip(rm, best))
+
+
+def _placement_cost(r: Chem.Mol, p: Chem.Mol, rm, pm) -> int:
+    """The chemically closest placement changes the fewest atoms (principle of minimal
+    chemical distance): heavy-neighbour and hydrogen counts compared atom by atom."""
+    total = 0
+    for a, b in zip(rm, pm):
+        ra, pa = r.GetAtomWithIdx(a), p.GetAtomWithIdx(b)
+        total += abs(ra.GetDegree() - pa.GetDegree()) + abs(ra.GetTotalNumHs() - pa.GetTotalNumHs())
+    return total
 
 
 def atom_correspondence(reaction: Reaction) -> dict[tuple[int, int], tuple[int, int]]:
@@ -108,12 +116,14 @@ def _correspondence(reaction: Reaction) -> dict[tuple[int, int], tuple[int, int]
         for p in reaction.products:
             if p.sanitization != "full":
                 continue
-            pairs = _mcs_map(Chem.MolToSmiles(r.mol), Chem.MolToSmiles(p.mol))
+            rk, pk = canonical_key(r.mol), canonical_key(p.mol)
+            if rk is None or pk is None:
+                continue
+            pairs = _mcs_map(rk[0], pk[0])
             if not pairs:
                 continue
             # the canonical SMILES reorders atoms: map back through the canonical ranks
-            r_order = _canonical_order(r.mol)
-            p_order = _canonical_order(p.mol)
+            r_order, p_order = rk[1], pk[1]
             mapped = tuple((r_order[a], p_order[b]) for a, b in pairs)
             if best is None or len(mapped) > len(best[1]):
                 best = (p.index, mapped)
@@ -121,14 +131,6 @@ def _correspondence(reaction: Reaction) -> dict[tuple[int, int], tuple[int, int]
             for ra, pa in best[1]:
                 out[(r.index, ra)] = (best[0], pa)
     return out
-
-
-def _canonical_order(mol: Chem.Mol) -> list[int]:
-    """Index in the original molecule of each atom of its canonical SMILES."""
-    with _rdlog.captured():
-        Chem.MolToSmiles(mol)
-    order = mol.GetProp("_smilesAtomOutputOrder")
-    return [int(x) for x in order.strip("[]").split(",") if x.strip()]
 
 
 def new_bonds_at_nitrogen(reaction: Reaction) -> list[NewBond]:

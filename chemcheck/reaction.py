@@ -16,7 +16,8 @@ from __future__ import annotations
 
 import re
 from collections.abc import Iterable, Sequence
-from dataclasses import dataclass, field
+from collections import OrderedDict
+from dataclasses import dataclass, field, replace
 
 from rdkit import Chem
 from rdkit.Chem import rdMolDescriptors
@@ -35,6 +36,7 @@ MAX_ATOMS = 2_000  # heavy atoms in one component
 
 _CX = re.compile(r"\s+\|([^|]*)\|\s*$")
 _FRAG_GROUP = re.compile(r"f:([\d.,]+)")
+_MAP_NUMBER = re.compile(r":\d+\]")
 
 
 @dataclass(frozen=True)
@@ -76,11 +78,16 @@ class Component:
     def inchikey(self) -> str:
         """Standard InChIKey, computed on first use (it costs more than the rest of parsing)."""
         if self._inchikey is None:
-            with _rdlog.captured():
-                try:
-                    self._inchikey = Chem.MolToInchiKey(self.mol) or ""
-                except (RuntimeError, ValueError):
-                    self._inchikey = ""
+            key = _INCHIKEYS.get(self.smiles)
+            if key is None:
+                with _rdlog.captured():
+                    try:
+                        key = Chem.MolToInchiKey(self.mol) or ""
+                    except (RuntimeError, ValueError):
+                        key = ""
+                if self.mol.GetNumAtoms() <= _CACHE_ATOMS:
+                    _remember(_INCHIKEYS, self.smiles, key)
+            self._inchikey = key
         return self._inchikey
 
     @property
@@ -163,7 +170,35 @@ def _looks_like_smiles(token: str) -> bool:
     )
 
 
+# Fragments and components read before, by their text. A chemist re-checks the same reagents
+# (and the check pad the same fragments on every keystroke); names, SMILES parsing,
+# sanitization, formula and mass are then read once. Each reaction gets its own copy of the
+# molecule, and the perception caches are told that the copy has the same canonical atom order.
+_FRAGMENTS: OrderedDict[str, Fragment] = OrderedDict()
+_COMPONENTS: OrderedDict[tuple[str, ...], tuple] = OrderedDict()
+_INCHIKEYS: OrderedDict[str, str] = OrderedDict()  # by canonical SMILES
+_CACHE_MAX = 2048
+_CACHE_ATOMS = 150  # larger molecules are rare; keep memory bounded
+
+
+def _remember(cache: OrderedDict, key, value) -> None:
+    cache[key] = value
+    if len(cache) > _CACHE_MAX:
+        cache.popitem(last=False)
+
+
 def _read_fragment(text: str, start: int, side: int, number: int) -> Fragment:
+    hit = _FRAGMENTS.get(text)
+    if hit is not None:
+        _FRAGMENTS.move_to_end(text)
+        return replace(hit, start=start, side=side, mol=Chem.Mol(hit.mol))
+    frag = _read_fragment_uncached(text, start, side, number)
+    if frag.mol is not None and frag.mol.GetNumAtoms() <= _CACHE_ATOMS:
+        _remember(_FRAGMENTS, text, replace(frag, mol=Chem.Mol(frag.mol)))
+    return frag
+
+
+def _read_fragment_uncached(text: str, start: int, side: int, number: int) -> Fragment:
     if text == "":
         raise ParseError("empty component (two dots in a row, or a dot at an end)", component=number, text=text)
     smiles_error: ParseError | None = None
@@ -300,7 +335,7 @@ def _group(fragments: list[Fragment], cx: list[list[int]], join: Sequence[str]) 
 def _charge(mol: Chem.Mol | None) -> int:
     if mol is None:
         return 0
-    return sum(a.GetFormalCharge() for a in mol.GetAtoms())
+    return Chem.GetFormalCharge(mol)
 
 
 def _canonical(mol: Chem.Mol) -> str:
@@ -311,9 +346,43 @@ def _canonical(mol: Chem.Mol) -> str:
 
 
 def _build_component(index: int, frags: list[Fragment], text_full: str) -> Component:
+    key = tuple(f.text for f in frags)
+    hit = _COMPONENTS.get(key)
+    start = frags[0].start
+    end = frags[-1].start + len(frags[-1].text)
+    if hit is not None:
+        _COMPONENTS.move_to_end(key)
+        template, fields, canon = hit
+        mol = Chem.Mol(template)
+        if canon is not None:
+            from .perceive import remember_canonical
+
+            remember_canonical(mol, canon)
+        return Component(index=index, role=ROLES[frags[0].side], mol=mol, span=(start, end), **fields)
+    comp = _build_component_uncached(index, frags, text_full)
+    if comp.mol.GetNumAtoms() <= _CACHE_ATOMS:
+        from .perceive import canonical_key
+
+        template = Chem.Mol(comp.mol)
+        fields = dict(
+            text=comp.text, smiles=comp.smiles, formula=comp.formula, mw=comp.mw, _inchikey=None, name=comp.name,
+            source=comp.source, sanitization=comp.sanitization, notes=comp.notes, fragments=comp.fragments,
+            kind_hint=comp.kind_hint,
+        )
+        _remember(_COMPONENTS, key, (template, fields, canonical_key(comp.mol)))
+    return comp
+
+
+def _build_component_uncached(index: int, frags: list[Fragment], text_full: str) -> Component:
     mol = frags[0].mol
     for f in frags[1:]:
         mol = Chem.CombineMols(mol, f.mol)
+    if len(frags) > 1:
+        with _rdlog.captured():
+            try:
+                Chem.GetSymmSSSR(mol)  # CombineMols drops ring information; restore it as sanitizing does
+            except RuntimeError:
+                pass
     heavy = mol.GetNumHeavyAtoms()
     text = ".".join(f.text for f in frags)
     if heavy > MAX_ATOMS:
@@ -415,5 +484,7 @@ def parse_reaction(text: str, *, join: Sequence[str] = ()) -> Reaction:
     if len(groups) > MAX_COMPONENTS:
         raise LimitError(f"the reaction has {len(groups)} components; the limit is {MAX_COMPONENTS}")
     components = [_build_component(i, [fragments[k] for k in g], raw) for i, g in enumerate(groups)]
-    mapped = any(a.GetAtomMapNum() for c in components for a in c.mol.GetAtoms())
+    mapped = any(_MAP_NUMBER.search(f.smiles) for f in fragments) and any(
+        a.GetAtomMapNum() for c in components for a in c.mol.GetAtoms()
+    )
     return Reaction(text=raw, components=components, cx_fields=cx_fields, mapped=mapped)

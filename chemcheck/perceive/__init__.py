@@ -93,6 +93,19 @@ def _canonical_key(mol: Chem.Mol) -> tuple[str, list[int]] | None:
     return key
 
 
+def canonical_key(mol: Chem.Mol) -> tuple[str, list[int]] | None:
+    """Canonical SMILES of ``mol`` and its canonical atom order (remembered per object)."""
+    return _canonical_key(mol)
+
+
+def remember_canonical(mol: Chem.Mol, key: tuple[str, list[int]]) -> None:
+    """Record the canonical key of ``mol``, a copy of a molecule whose key is known (same atom
+    order), so that perception does not write its SMILES again."""
+    _KEYS[id(mol)] = (mol, key)
+    if len(_KEYS) > _KEYS_MAX:
+        _KEYS.popitem(last=False)
+
+
 def _compute_key(mol: Chem.Mol) -> tuple[str, list[int]] | None:
     from .. import _rdlog
 

@@ -5,6 +5,7 @@ sides)."""
 from __future__ import annotations
 
 from dataclasses import dataclass, field
+from functools import lru_cache
 
 from rdkit import Chem
 
@@ -65,6 +66,7 @@ def attach(mol: Chem.Mol, atom: int, frag: Chem.Mol, frag_atom: int = 0) -> str 
     return canonical(m)
 
 
+@lru_cache(maxsize=8192)
 def _key(smiles: str, stereo: bool) -> str | None:
     with _rdlog.captured():
         m = Chem.MolFromSmiles(smiles)
