@@ -138,16 +138,24 @@ def new_bonds_at_nitrogen(reaction: Reaction) -> list[NewBond]:
 
 
 def new_bonds_at(reaction: Reaction, element: int = 7) -> list[NewBond]:
-    """Reactant atoms of ``element`` that gain a heavy neighbour (or, for N, an acyl group)."""
+    """Reactant atoms of ``element`` that gain a heavy neighbour (or, for N, an acyl group);
+    computed once per reaction and element."""
+    cache = reaction.__dict__.setdefault("_new_bonds", {})
+    if element not in cache:
+        cache[element] = tuple(_new_bonds_at(reaction, element))
+    return list(cache[element])
+
+
+def _new_bonds_at(reaction: Reaction, element: int) -> list[NewBond]:
     from .perceive import nitrogen_sites
 
     corr = atom_correspondence(reaction)
     comps = reaction.components
     kinds = {c.index: {s.atom_index: s.kind for s in nitrogen_sites(c.mol)} for c in comps if c.role != "agent"}
     out = []
-    inverse: dict[tuple[int, int], set[tuple[int, int]]] = {}
-    for k, v in corr.items():
-        inverse.setdefault(v, set()).add(k)
+    mapped_into: dict[tuple[int, int], set[int]] = {}  # (reactant, product) -> product atoms mapped
+    for (ri, _ra), (pi, pa) in corr.items():
+        mapped_into.setdefault((ri, pi), set()).add(pa)
     for (ri, ra), (pi, pa) in corr.items():
         ratom = comps[ri].mol.GetAtomWithIdx(ra)
         if ratom.GetAtomicNum() != element:
@@ -160,7 +168,7 @@ def new_bonds_at(reaction: Reaction, element: int = 7) -> list[NewBond]:
         acylated = kb != ka and ka in ("amide", "sulfonamide", "carbamate", "urea", "imide", "enamine", "iminium", "imine")
         if heavy_p <= heavy_r and not acylated:
             continue
-        mapped_from_same = {pa2 for (ri2, ra2), (pi2, pa2) in corr.items() if ri2 == ri and pi2 == pi}
+        mapped_from_same = mapped_into[(ri, pi)]
         partners = tuple(n.GetIdx() for n in patom.GetNeighbors() if n.GetAtomicNum() > 1 and n.GetIdx() not in mapped_from_same)
         out.append(
             NewBond(ri, ra, pi, pa, partners, ratom.GetFormalCharge(), patom.GetFormalCharge(), heavy_r, heavy_p, kb, ka)

@@ -191,7 +191,8 @@ def _read_fragment(text: str, start: int, side: int, number: int) -> Fragment:
     hit = _FRAGMENTS.get(text)
     if hit is not None:
         _FRAGMENTS.move_to_end(text)
-        return replace(hit, start=start, side=side, mol=Chem.Mol(hit.mol))
+        # the molecule is shared with the cache: components copy it (or combine it) before use
+        return replace(hit, start=start, side=side)
     frag = _read_fragment_uncached(text, start, side, number)
     if frag.mol is not None and frag.mol.GetNumAtoms() <= _CACHE_ATOMS:
         _remember(_FRAGMENTS, text, replace(frag, mol=Chem.Mol(frag.mol)))
@@ -357,7 +358,7 @@ def _build_component(index: int, frags: list[Fragment], text_full: str) -> Compo
         if canon is not None:
             from .perceive import remember_canonical
 
-            remember_canonical(mol, canon)
+            remember_canonical(mol, canon, rings=fields["sanitization"] == "full")
         return Component(index=index, role=ROLES[frags[0].side], mol=mol, span=(start, end), **fields)
     comp = _build_component_uncached(index, frags, text_full)
     if comp.mol.GetNumAtoms() <= _CACHE_ATOMS:
@@ -374,7 +375,7 @@ def _build_component(index: int, frags: list[Fragment], text_full: str) -> Compo
 
 
 def _build_component_uncached(index: int, frags: list[Fragment], text_full: str) -> Component:
-    mol = frags[0].mol
+    mol = Chem.Mol(frags[0].mol)
     for f in frags[1:]:
         mol = Chem.CombineMols(mol, f.mol)
     if len(frags) > 1:

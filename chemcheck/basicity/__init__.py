@@ -30,7 +30,7 @@ from rdkit import Chem
 from .. import _rdlog
 from ..errors import ParseError
 from ..molecule import read_smiles
-from ..perceive import nitrogen_sites
+from ..perceive import canonical_key, nitrogen_sites
 from . import model
 from .reference import REFERENCE
 
@@ -239,13 +239,14 @@ def basic_sites(smiles_or_mol, *, max_sites: int = 8) -> list[Site]:
     mol = _to_mol(smiles_or_mol)
     if mol.GetNumAtoms() >= 400:
         return _compute(mol, max_sites)
-    with _rdlog.captured():
-        smiles = Chem.MolToSmiles(mol)
     # the cache works in canonical atom order: map the indices back to the caller's molecule
-    order = [int(x) for x in mol.GetProp("_smilesAtomOutputOrder").strip("[]").split(",") if x.strip()]
-    cached = _basic_sites_cached(smiles, max_sites)
-    if len(order) != mol.GetNumAtoms():
+    key = canonical_key(mol)
+    if key is None:
         return _compute(mol, max_sites)
+    smiles, order = key
+    cached = _basic_sites_cached(smiles, max_sites)
+    if all(order[s.atom_index] == s.atom_index for s in cached):
+        return list(cached)
     return sorted((replace(s, atom_index=order[s.atom_index]) for s in cached), key=lambda s: s.atom_index)
 
 

@@ -5,7 +5,6 @@ Pure functions over RDKit molecules; the catalog of patterns is data (``catalog.
 
 from __future__ import annotations
 
-from collections import OrderedDict
 from dataclasses import dataclass, field, replace
 from functools import lru_cache
 
@@ -53,16 +52,21 @@ class GroupMatch:
         return self.atoms[0]
 
 
-_RINGS_OK: OrderedDict[int, Chem.Mol] = OrderedDict()
+# Per-molecule facts are kept on the Python molecule object itself (copies start without
+# them), with the atom and bond counts they were computed for as a guard against a molecule
+# edited in place afterwards.
+_KEY_ATTR = "_chemcheck_canonical"
+_RINGS_ATTR = "_chemcheck_rings"
+
+
+def _shape(mol: Chem.Mol) -> tuple[int, int]:
+    return mol.GetNumAtoms(), mol.GetNumBonds()
 
 
 def _ensure_rings(mol: Chem.Mol) -> None:
     # molecules read with partial sanitization or split without it have no ring information
-    if _RINGS_OK.get(id(mol)) is mol:
+    if getattr(mol, _RINGS_ATTR, None) == _shape(mol):
         return
-    _RINGS_OK[id(mol)] = mol
-    if len(_RINGS_OK) > _KEYS_MAX:
-        _RINGS_OK.popitem(last=False)
     from .. import _rdlog
 
     with _rdlog.captured():
@@ -70,40 +74,38 @@ def _ensure_rings(mol: Chem.Mol) -> None:
             mol.GetRingInfo().NumRings()
         except RuntimeError:
             Chem.FastFindRings(mol)
+    _mark(mol, _RINGS_ATTR, _shape(mol))
 
 
-_KEYS: OrderedDict[int, tuple] = OrderedDict()
-_KEYS_MAX = 1024
+def _mark(mol: Chem.Mol, attr: str, value) -> None:
+    try:
+        setattr(mol, attr, value)
+    except AttributeError:  # an object that takes no attributes: recompute next time
+        pass
 
 
 def _canonical_key(mol: Chem.Mol) -> tuple[str, list[int]] | None:
-    """Canonical SMILES and, for each canonical atom, its index in ``mol`` (for caches).
-
-    Remembered per molecule object (the entry keeps the object alive, so its id cannot be
-    reused); molecules are not changed in place after parsing.
-    """
-    hit = _KEYS.get(id(mol))
-    if hit is not None and hit[0] is mol:
-        _KEYS.move_to_end(id(mol))
+    """Canonical SMILES and, for each canonical atom, its index in ``mol`` (for caches)."""
+    hit = getattr(mol, _KEY_ATTR, None)
+    if hit is not None and hit[0] == _shape(mol):
         return hit[1]
     key = _compute_key(mol)
-    _KEYS[id(mol)] = (mol, key)
-    if len(_KEYS) > _KEYS_MAX:
-        _KEYS.popitem(last=False)
+    _mark(mol, _KEY_ATTR, (_shape(mol), key))
     return key
 
 
 def canonical_key(mol: Chem.Mol) -> tuple[str, list[int]] | None:
-    """Canonical SMILES of ``mol`` and its canonical atom order (remembered per object)."""
+    """Canonical SMILES of ``mol`` and its canonical atom order (remembered on the object)."""
     return _canonical_key(mol)
 
 
-def remember_canonical(mol: Chem.Mol, key: tuple[str, list[int]]) -> None:
+def remember_canonical(mol: Chem.Mol, key: tuple[str, list[int]], rings: bool = False) -> None:
     """Record the canonical key of ``mol``, a copy of a molecule whose key is known (same atom
-    order), so that perception does not write its SMILES again."""
-    _KEYS[id(mol)] = (mol, key)
-    if len(_KEYS) > _KEYS_MAX:
-        _KEYS.popitem(last=False)
+    order), so that perception does not write its SMILES again; ``rings`` when the copy is
+    known to carry ring information."""
+    _mark(mol, _KEY_ATTR, (_shape(mol), key))
+    if rings:
+        _mark(mol, _RINGS_ATTR, _shape(mol))
 
 
 def _compute_key(mol: Chem.Mol) -> tuple[str, list[int]] | None:
@@ -296,9 +298,22 @@ _HINDERED = tuple(
 )
 
 
+_HINDERED_BY_SMILES: dict[str, bool] = {}
+
+
 def is_hindered_base(mol: Chem.Mol) -> bool:
+    key = _canonical_key(mol)
+    if key is not None:
+        hit = _HINDERED_BY_SMILES.get(key[0])
+        if hit is not None:
+            return hit
     _ensure_rings(mol)
-    return any(mol.HasSubstructMatch(p) for p in _HINDERED)
+    out = any(mol.HasSubstructMatch(p) for p in _HINDERED)
+    if key is not None:
+        if len(_HINDERED_BY_SMILES) > 4096:
+            _HINDERED_BY_SMILES.clear()
+        _HINDERED_BY_SMILES[key[0]] = out
+    return out
 
 
 @dataclass(frozen=True)

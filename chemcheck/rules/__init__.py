@@ -16,7 +16,7 @@ import re
 import textwrap
 from collections.abc import Callable, Iterable
 from dataclasses import dataclass
-from functools import cached_property
+from functools import cached_property, lru_cache
 
 from ..findings import Finding, Severity
 from ..perceive import Perception, perceive
@@ -85,7 +85,7 @@ class Rule:
 
     @property
     def docs(self) -> dict[str, str]:
-        return parse_doc_sections(inspect.getdoc(self.check) or "")
+        return dict(_docs_of(self.check))
 
     def finding(
         self,
@@ -108,8 +108,7 @@ class Rule:
 
     @property
     def references(self) -> tuple[str, ...]:
-        text = self.docs.get("References", "")
-        return tuple(line.lstrip("-* ").strip() for line in text.splitlines() if line.strip())
+        return _references_of(self.check)
 
 
 _REGISTRY: dict[str, Rule] = {}
@@ -129,6 +128,17 @@ def rule(*, id: str, title: str, severity: Severity) -> Callable[[CheckFn], Chec
         return fn
 
     return register
+
+
+@lru_cache(maxsize=None)
+def _docs_of(fn: CheckFn) -> tuple[tuple[str, str], ...]:
+    return tuple(parse_doc_sections(inspect.getdoc(fn) or "").items())
+
+
+@lru_cache(maxsize=None)
+def _references_of(fn: CheckFn) -> tuple[str, ...]:
+    text = dict(_docs_of(fn)).get("References", "")
+    return tuple(line.lstrip("-* ").strip() for line in text.splitlines() if line.strip())
 
 
 def parse_doc_sections(doc: str) -> dict[str, str]:
