@@ -96,8 +96,24 @@ def _number(text: str, key: str, whole: str) -> float:
     return v
 
 
+_READ: dict[str, Amount] = {}
+
+
 def parse_amount(text: str, key: str | None = None) -> Amount:
-    """Read one amount string; raise :class:`AmountError` naming the component and the text."""
+    """Read one amount string; raise :class:`AmountError` naming the component and the text.
+    Amounts read before are remembered by their text (an Amount is immutable)."""
+    if isinstance(text, str):
+        hit = _READ.get(text)
+        if hit is not None:
+            return hit
+    out = _parse_amount(text, key)
+    if len(_READ) > 4096:
+        _READ.clear()
+    _READ[text] = out
+    return out
+
+
+def _parse_amount(text: str, key: str | None = None) -> Amount:
     if not isinstance(text, str):
         raise AmountError(f"an amount must be text like '1.2 mmol', not {type(text).__name__}", key=key)
     whole = text

@@ -53,6 +53,21 @@ def _mcs_map(r_smiles: str, p_smiles: str) -> tuple[tuple[int, int], ...]:
         if whole:
             rm = tuple(range(r.GetNumAtoms()))
             return tuple(zip(rm, min(whole, key=lambda pm: _placement_cost(r, p, rm, pm))))
+        # the reactant without one terminal halogen (an acid or sulfonyl chloride, an alkyl
+        # halide that has reacted): again no search is needed
+        for atom in r.GetAtoms():
+            if atom.GetAtomicNum() not in (17, 35, 53) or atom.GetDegree() != 1 or r.GetNumAtoms() < 3:
+                continue
+            x = atom.GetIdx()
+            core = Chem.RWMol(r)
+            core.RemoveAtom(x)
+            core = core.GetMol()
+            core.UpdatePropertyCache(strict=False)
+            Chem.FastFindRings(core)
+            found = p.GetSubstructMatches(core, uniquify=False, maxMatches=200)
+            if found:
+                rm = tuple(i for i in range(r.GetNumAtoms()) if i != x)
+                return tuple(zip(rm, min(found, key=lambda pm: _placement_cost(r, p, rm, pm))))
         res = rdFMCS.FindMCS(
             [r, p],
             timeout=MCS_TIMEOUT_S,
