@@ -17,7 +17,7 @@ from __future__ import annotations
 import math
 from dataclasses import dataclass
 
-__all__ = ["Acceptor", "Distribution", "distribute", "max_conversion", "free_fraction"]
+__all__ = ["Acceptor", "Distribution", "distribute", "max_conversion", "reaches", "free_fraction"]
 
 
 @dataclass(frozen=True)
@@ -97,26 +97,17 @@ def free_fraction(nucleophile: Acceptor, others: list[Acceptor], protons_mmol: f
     return 1.0 - d.fraction(nucleophile.label, nucleophile.mmol)
 
 
-def max_conversion(
+def _progress_test(
     nucleophile: Acceptor,
     electrophile_mmol: float,
     others: list[Acceptor],
-    acid_per_turnover: float = 1.0,
-    released_pka: float | None = None,
-    protons_present: float = 0.0,
-    nucleophile_per_turnover: float = 1.0,
-    threshold: float = 0.01,
-) -> float:
-    """The largest conversion (0-1, of the electrophile) reachable before the nucleophile is
-    used up as its salt by the acid the reaction releases.
-
-    At conversion x the reaction has consumed x*E*nucleophile_per_turnover of the nucleophile
-    and released x*E*acid_per_turnover protons (plus ``protons_present`` brought in); the
-    released acid's own conjugate base (pKa ``released_pka``, e.g. acetate) competes for them.
-    The reaction stops when the free (unprotonated) share of the nucleophile still present
-    falls below ``threshold``: a weak acid that leaves a few percent free only slows the
-    reaction, while HCl against an alkylamine leaves essentially none.
-    """
+    acid_per_turnover: float,
+    released_pka: float | None,
+    protons_present: float,
+    nucleophile_per_turnover: float,
+    threshold: float,
+):
+    """going(x): whether the reaction still runs at conversion x; and the largest x possible."""
     n0 = nucleophile.mmol
     e = electrophile_mmol
 
@@ -137,15 +128,63 @@ def max_conversion(
         return free_at(x) > threshold * remaining
 
     x_end = min(1.0, n0 / (e * nucleophile_per_turnover)) if e > 0 else 1.0
+    return going, x_end
+
+
+def max_conversion(
+    nucleophile: Acceptor,
+    electrophile_mmol: float,
+    others: list[Acceptor],
+    acid_per_turnover: float = 1.0,
+    released_pka: float | None = None,
+    protons_present: float = 0.0,
+    nucleophile_per_turnover: float = 1.0,
+    threshold: float = 0.01,
+) -> float:
+    """The largest conversion (0-1, of the electrophile) reachable before the nucleophile is
+    used up as its salt by the acid the reaction releases.
+
+    At conversion x the reaction has consumed x*E*nucleophile_per_turnover of the nucleophile
+    and released x*E*acid_per_turnover protons (plus ``protons_present`` brought in); the
+    released acid's own conjugate base (pKa ``released_pka``, e.g. acetate) competes for them.
+    The reaction stops when the free (unprotonated) share of the nucleophile still present
+    falls below ``threshold``: a weak acid that leaves a few percent free only slows the
+    reaction, while HCl against an alkylamine leaves essentially none.
+    """
+    going, x_end = _progress_test(
+        nucleophile, electrophile_mmol, others, acid_per_turnover, released_pka, protons_present,
+        nucleophile_per_turnover, threshold,
+    )
     if going(x_end * (1 - 1e-6)):
         return 1.0
     lo, hi = 0.0, x_end
     if not going(0.0):
         return 0.0
-    for _ in range(17):  # conversion to about 1e-5 (reported in percent)
+    for _ in range(13):  # conversion to about 1e-4 (reported in whole percent)
         mid = (lo + hi) / 2
         if going(mid):
             lo = mid
         else:
             hi = mid
     return lo
+
+
+def reaches(
+    nucleophile: Acceptor,
+    electrophile_mmol: float,
+    others: list[Acceptor],
+    fraction: float,
+    acid_per_turnover: float = 1.0,
+    released_pka: float | None = None,
+    protons_present: float = 0.0,
+    nucleophile_per_turnover: float = 1.0,
+    threshold: float = 0.01,
+) -> bool:
+    """Whether the reaction still runs at ``fraction`` of its stoichiometric limit (the
+    question ``max_conversion`` answers, tested at one point: one equilibrium instead of a
+    bisection)."""
+    going, x_end = _progress_test(
+        nucleophile, electrophile_mmol, others, acid_per_turnover, released_pka, protons_present,
+        nucleophile_per_turnover, threshold,
+    )
+    return going(x_end * fraction)

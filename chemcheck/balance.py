@@ -134,11 +134,31 @@ def _counts_of(component: Component) -> Counter:
     return Counter(hit)
 
 
+_BALANCED: dict[tuple[tuple[str, ...], tuple[str, ...]], tuple] = {}
+
+
 def balance(reaction: Reaction) -> Balance:
+    """Whether the drawn equation balances, and the smallest coefficients and by-products that
+    balance it. Depends only on the structures: remembered by the components' SMILES."""
     reactants = reaction.reactants
     products = reaction.products
     if not products:
         return Balance(False, False, checked=False)
+    key = (tuple(c.smiles for c in reactants), tuple(c.smiles for c in products))
+    hit = _BALANCED.get(key)
+    if hit is None:
+        hit = _balance(reaction)
+        if len(_BALANCED) > 4096:
+            _BALANCED.clear()
+        _BALANCED[key] = hit
+    drawn_ok, ok, coeffs, missing, residual, charge = hit
+    species = reactants + products
+    return Balance(drawn_ok, ok, {c.index: k for c, k in zip(species, coeffs)}, list(missing), dict(residual), charge)
+
+
+def _balance(reaction: Reaction) -> tuple:
+    reactants = reaction.reactants
+    products = reaction.products
     species: list[tuple[Component, int]] = [(c, 1) for c in reactants] + [(c, -1) for c in products]
     vectors = [_counts_of(c) for c, _ in species]
     charges = [Chem.GetFormalCharge(c.mol) for c, _ in species]
@@ -201,20 +221,12 @@ def balance(reaction: Reaction) -> Balance:
         if cand and (best is None or cand[:2] < best[:2]):
             best = cand
     if best is not None:
-        coeffs = best[2]
-        return Balance(
-            drawn_ok,
-            True,
-            {c.index: k for (c, _), k in zip(species, coeffs)},
-            list(best[3]),
-            {},
-            0,
-        )
-    return Balance(
+        return (drawn_ok, True, tuple(best[2]), tuple(best[3]), {}, 0)
+    return (
         False,
         False,
-        {c.index: 1 for c, _ in species},
-        [],
+        tuple(1 for _ in species),
+        (),
         {e: n for e, n in sorted(drawn.items()) if n},
         drawn_q,
     )

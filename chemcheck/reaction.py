@@ -114,7 +114,12 @@ class Reaction:
     notes: list[str] = field(default_factory=list)
 
     def by_role(self, role: str) -> list[Component]:
-        return [c for c in self.components if c.role == role]
+        cache = self.__dict__.setdefault("_by_role", {})
+        hit = cache.get(role)
+        if hit is None or hit[0] != len(self.components):
+            hit = (len(self.components), [c for c in self.components if c.role == role])
+            cache[role] = hit
+        return list(hit[1])
 
     @property
     def reactants(self) -> list[Component]:
@@ -394,7 +399,13 @@ def _build_component_uncached(index: int, frags: list[Fragment], text_full: str)
     sanitization = "partial" if any(f.sanitization == "partial" for f in frags) else "full"
     notes = tuple(f.note for f in frags if f.note)
     with _rdlog.captured():
-        smiles = _canonical(mol)
+        if any(_MAP_NUMBER.search(f.smiles) for f in frags):
+            smiles = _canonical(mol)
+        else:
+            from .perceive import canonical_key
+
+            key = canonical_key(mol)  # remembered on the molecule for perception
+            smiles = key[0] if key is not None else _canonical(mol)
         try:
             formula = rdMolDescriptors.CalcMolFormula(mol)
         except (RuntimeError, ValueError):

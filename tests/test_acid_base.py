@@ -62,3 +62,21 @@ def test_report_carries_basicity_and_workup():
     kinds = {(b["component"], b["kind"]) for b in d["basicity"]}
     assert (0, "primary_amine") in kinds and (3, "amide") in kinds
     assert any("CCCCN" in w["message"] for w in d["workup"])
+
+
+def test_reaches_agrees_with_the_bisection():
+    # one equilibrium at 90 % of the limit must give the same answer as the full bisection
+    from chemcheck.acid_base import reaches
+
+    cases = [
+        (10.6, 1.0, 1.0, []),  # alkylamine + acid chloride, no base: stops near 50 %
+        (10.6, 1.0, 1.0, [Acceptor("Et3N", 10.75, 1.2)]),
+        (10.6, 1.0, 1.0, [Acceptor("pyridine", 5.2, 1.2)]),
+        (4.6, 1.0, 1.0, [Acceptor("pyridine", 5.2, 0.5)]),
+        (10.6, 2.0, 1.0, []),  # two equivalents of amine
+    ]
+    for pka, n_amine, n_e, others in cases:
+        nuc = Acceptor("amine", pka, n_amine)
+        x = max_conversion(nuc, n_e, others)
+        limit = min(n_e, n_amine)
+        assert reaches(nuc, n_e, others, 0.9) == (x * n_e / limit >= 0.9), (pka, n_amine, others)

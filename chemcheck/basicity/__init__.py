@@ -244,10 +244,19 @@ def basic_sites(smiles_or_mol, *, max_sites: int = 8) -> list[Site]:
     if key is None:
         return _compute(mol, max_sites)
     smiles, order = key
+    hit = _REMAPPED.get((smiles, max_sites))
+    if hit is not None and hit[0] == order:
+        return list(hit[1])
     cached = _basic_sites_cached(smiles, max_sites)
-    if all(order[s.atom_index] == s.atom_index for s in cached):
-        return list(cached)
-    return sorted((replace(s, atom_index=order[s.atom_index]) for s in cached), key=lambda s: s.atom_index)
+    out = tuple(sorted((replace(s, atom_index=order[s.atom_index]) for s in cached), key=lambda s: s.atom_index))
+    if len(_REMAPPED) > 4096:
+        _REMAPPED.clear()
+    _REMAPPED[(smiles, max_sites)] = (order, out)
+    return list(out)
+
+
+# the last remapping of each cached result, with the atom order it was made for
+_REMAPPED: dict[tuple[str, int], tuple[list[int], tuple]] = {}
 
 
 @lru_cache(maxsize=2048)

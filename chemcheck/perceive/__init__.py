@@ -59,8 +59,8 @@ _KEY_ATTR = "_chemcheck_canonical"
 _RINGS_ATTR = "_chemcheck_rings"
 
 
-def _shape(mol: Chem.Mol) -> tuple[int, int]:
-    return mol.GetNumAtoms(), mol.GetNumBonds()
+def _shape(mol: Chem.Mol) -> int:
+    return mol.GetNumAtoms()
 
 
 def _ensure_rings(mol: Chem.Mol) -> None:
@@ -373,7 +373,27 @@ def agent_kind(nitrogens, groups: list[GroupMatch], hint: str | None) -> str:
     return "other"
 
 
+_PERCEIVED: dict[tuple[str, str | None], tuple[list[int], Perception]] = {}
+
+
 def perceive(mol: Chem.Mol, hint: str | None = None) -> Perception:
+    """Nitrogen classes, reactive groups, hindrance and agent kind of one molecule. Remembered
+    by canonical SMILES together with the atom order it was worked out for (a Perception is
+    immutable), so a molecule drawn the same way again costs one lookup."""
+    key = _canonical_key(mol)
+    if key is not None:
+        hit = _PERCEIVED.get((key[0], hint))
+        if hit is not None and hit[0] == key[1]:
+            return hit[1]
+    out = _perceive(mol, hint)
+    if key is not None:
+        if len(_PERCEIVED) > 4096:
+            _PERCEIVED.clear()
+        _PERCEIVED[(key[0], hint)] = (key[1], out)
+    return out
+
+
+def _perceive(mol: Chem.Mol, hint: str | None) -> Perception:
     _ensure_rings(mol)
     sites = nitrogen_sites(mol)
     groups = reactive_groups(mol)

@@ -4,7 +4,7 @@ from __future__ import annotations
 
 import math
 
-from ..acid_base import Acceptor, max_conversion
+from ..acid_base import Acceptor, max_conversion, reaches
 from . import Context, rule
 from ._support import (
     ACID_RELEASING,
@@ -272,15 +272,14 @@ def acid_scavenger_short(ctx: Context):
         brought = acids_brought_in(ctx, {nuc.index, elec.index})
         protons = sum(m for _, _, m in brought)
         assumed = a1 or a2 or any(b.assumed for b in bases)
-        x = max_conversion(
-            Acceptor("nucleophile", site.pka, n_nuc),
-            n_e,
-            [b.acceptor() for b in bases],
-            acid_per_turnover=per,
-            released_pka=acid_pka,
-            protons_present=protons,
-            nucleophile_per_turnover=per,
+        balance_args = dict(
+            acid_per_turnover=per, released_pka=acid_pka, protons_present=protons, nucleophile_per_turnover=per
         )
+        nucleophile = Acceptor("nucleophile", site.pka, n_nuc)
+        acceptors = [b.acceptor() for b in bases]
+        if reaches(nucleophile, n_e, acceptors, 0.9, **balance_args):
+            continue  # 90 % of the stoichiometric limit is reached: nothing to report
+        x = max_conversion(nucleophile, n_e, acceptors, **balance_args)
         limit = min(n_e, n_nuc / per)
         reach = x * n_e / limit if limit > 0 else 1.0
         if reach >= 0.9:
@@ -742,8 +741,14 @@ def uphill_proton_transfer(ctx: Context):
 
     from rdkit import Chem
 
+    from ..balance import _counts_of
+
     def heavy(comps):
-        return Counter(a.GetSymbol() for c in comps for a in c.mol.GetAtoms() if a.GetAtomicNum() > 1)
+        total: Counter = Counter()
+        for c in comps:
+            total.update(_counts_of(c))
+        total.pop("H", None)
+        return +total
 
     if heavy(rxn.reactants) != heavy(rxn.products):
         return  # heavy atoms changed: more than a proton moved

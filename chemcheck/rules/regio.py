@@ -23,16 +23,26 @@ def _predictions(ctx: Context) -> list[Prediction]:
     return preds
 
 
+def _product_fragments(ctx: Context) -> list[tuple[object, str]]:
+    """(product component, canonical isomeric SMILES) of every drawn product fragment."""
+    got = getattr(ctx, "_product_fragments", None)
+    if got is None:
+        got = []
+        for prod in ctx.reaction.products:
+            for frag in Chem.GetMolFrags(prod.mol, asMols=True, sanitizeFrags=False):
+                smi = canonical(frag, stereo=True)
+                if smi:
+                    got.append((prod, smi))
+        ctx._product_fragments = got
+    return got
+
+
 def _drawn_match(ctx: Context, cands: list[Candidate]) -> tuple[Candidate | None, object]:
-    for prod in ctx.reaction.products:
-        for frag in Chem.GetMolFrags(prod.mol, asMols=True, sanitizeFrags=False):
-            smi = canonical(frag, stereo=True)
-            if not smi:
-                continue
-            for c in cands:
-                if same_compound(c.smiles, smi, stereo=None):
-                    c.drawn = True
-                    return c, prod
+    for prod, smi in _product_fragments(ctx):
+        for c in cands:
+            if same_compound(c.smiles, smi, stereo=None):
+                c.drawn = True
+                return c, prod
     return None, None
 
 
