@@ -76,8 +76,15 @@ def read_smiles(
     """Parse and sanitize ``smiles``; raise :class:`ParseError` naming the position."""
     if not smiles or not smiles.strip():
         raise ParseError("empty", component=component, text=text if text is not None else smiles)
+    if not smiles.isascii():
+        # SMILES is ASCII; RDKit's log would also cut a multibyte character in half
+        pos = next(i for i, ch in enumerate(smiles) if not ch.isascii())
+        _raise(f"character {smiles[pos]!r} cannot appear in SMILES", smiles, pos, component=component, text=text)
     with _rdlog.captured() as log:
-        mol = Chem.MolFromSmiles(smiles, sanitize=False)
+        try:
+            mol = Chem.MolFromSmiles(smiles, sanitize=False)
+        except SystemError:  # RDKit's log bridge failed on the text: treat as unreadable
+            mol = None
     if mol is None:
         _explain_syntax(smiles, log, component, text)
     if mol.GetNumAtoms() == 0:

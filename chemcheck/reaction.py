@@ -237,6 +237,13 @@ def _read_fragment_uncached(text: str, start: int, side: int, number: int) -> Fr
         )
     if _looks_like_smiles(text):
         raise smiles_error
+    if not text.isascii() and smiles_error is not None:
+        raise ParseError(
+            f"not a known reagent name, and not SMILES: {smiles_error.reason}",
+            component=number,
+            text=text,
+            position=smiles_error.position,
+        )
     raise ParseError("neither valid SMILES nor a known reagent name", component=number, text=text)
 
 
@@ -267,7 +274,12 @@ def _merge_dotted_names(located: list[tuple[str, int, int]]) -> list[tuple[str, 
 
 def _parses(text: str) -> bool:
     with _rdlog.captured():
-        return Chem.MolFromSmiles(text) is not None
+        if not text.isascii():
+            return False
+        try:
+            return Chem.MolFromSmiles(text) is not None
+        except SystemError:
+            return False
 
 
 def _cx_groups(cx: str | None) -> list[list[int]]:

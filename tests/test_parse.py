@@ -154,3 +154,13 @@ def test_rdkit_log_never_reaches_stderr():
     proc = subprocess.run([sys.executable, "-c", code], capture_output=True, text=True, timeout=120)
     assert proc.returncode == 0, proc.stderr
     assert proc.stderr == ""
+
+
+def test_non_ascii_text_is_refused_with_the_character_and_position():
+    # found by fuzzing: RDKit's log cut a multibyte character in half and raised SystemError
+    with pytest.raises(chemcheck.ParseError) as exc:
+        chemcheck.check("CCN.CC\u00e9N>>CCN")
+    assert exc.value.component == 2 and exc.value.position == 3
+    assert "\u00e9" in str(exc.value)
+    with pytest.raises(chemcheck.ParseError):
+        chemcheck.check("\u00c2\u00e8\u00a58\U00038d7a\u00bd\x8f")
