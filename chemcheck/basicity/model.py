@@ -416,8 +416,14 @@ def _fused_ring_sigma(mol: Chem.Mol, ring: list[int], site: int) -> float:
     total = 0.0
     for a_idx, lvl in away.items():
         atom = mol.GetAtomWithIdx(a_idx)
+        f = K.FUSED_RING_FACTOR ** lvl
+        odd = (len(Chem.GetShortestPath(mol, site, a_idx)) - 1) % 2 == 1
         for x in atom.GetNeighbors():
             if x.GetIdx() in system:
+                continue
+            bond = mol.GetBondBetweenAtoms(a_idx, x.GetIdx())
+            if x.GetAtomicNum() in (8, 16) and bond.GetBondType() == Chem.BondType.DOUBLE:
+                total += f * K.RING_OXO["para" if odd else "meta"]  # a ring C=O of the fused ring
                 continue
             key = classify_substituent(mol, atom, x, system)
             if key in ("fused", "H"):
@@ -425,6 +431,28 @@ def _fused_ring_sigma(mol: Chem.Mol, ring: list[int], site: int) -> float:
             d = len(Chem.GetShortestPath(mol, site, a_idx)) - 1
             sm, sp, _spm = K.HAMMETT.get(key, (0.0, 0.0, 0.0))
             total += (K.FUSED_RING_FACTOR ** lvl) * (sp if d % 2 == 1 else sm)
+    return total
+
+
+def _fused_aza_sigma(mol: Chem.Mol, ring: list[int], site: int) -> float:
+    """Ring aza atoms of an aromatic ring fused to the azole ring (the pyrimidine ring of a
+    purine, the pyridine ring of an imidazopyridine), each as an aza substituent at the reduced
+    strength of a fused ring (FUSED_RING_FACTOR), sigma_p at odd path lengths from the site and
+    sigma_m at even ones. Without it the imidazole N of a purine would be taken for the most
+    basic site; purines protonate at N1 of the pyrimidine ring."""
+    ring_set = set(ring)
+    total = 0.0
+    for other in mol.GetRingInfo().AtomRings():
+        if len(ring_set & set(other)) != 2 or not all(mol.GetAtomWithIdx(i).GetIsAromatic() for i in other):
+            continue
+        for idx in other:
+            if idx in ring_set:
+                continue
+            a = mol.GetAtomWithIdx(idx)
+            if a.GetAtomicNum() != 7 or a.GetDegree() == 3 or a.GetTotalNumHs() > 0 or a.GetFormalCharge() != 0:
+                continue
+            d = len(Chem.GetShortestPath(mol, site, idx)) - 1
+            total += K.FUSED_RING_FACTOR * K.AZA_SIGMA["para" if d % 2 == 1 else "meta"]
     return total
 
 
@@ -531,6 +559,7 @@ def azine(mol: Chem.Mol, n_idx: int) -> tuple[float, str]:
     fused_atoms = [i for i in ring5 if mol.GetRingInfo().NumAtomRings(i) > 1 and mol.GetAtomWithIdx(i).GetAtomicNum() == 6]
     if len(fused_atoms) >= 2:
         pka += _AZOLE_BENZO
+        sigma += _fused_aza_sigma(mol, ring5, n_idx)
     return pka - K.AZOLE_RHO * sigma, f"ring class ({label}) with substituent terms"
 
 
