@@ -119,14 +119,17 @@ def _accuracy(path, cls=None):
 
 
 # Regression guards at the accuracy measured when the methods landed (docs/basicity.md);
-# the goals of the basicity issue (overall 0.5, anilines and pyridines 0.3) are not yet met.
+# the goals of the basicity issue (overall 0.5, pyridines 0.3) are not yet met; primary
+# anilines (0.25) meet theirs.
 @pytest.mark.parametrize(
     "classes,limit",
     [
-        (None, 0.90),
-        (("aniline_primary",), 0.38),
+        (None, 0.76),
+        (("aniline_primary",), 0.30),
+        (("azine_polyaza",), 1.10),
+        (("other_heteroaromatic",), 0.85),
         (("aliphatic_primary", "aliphatic_secondary", "aliphatic_tertiary"), 0.62),
-        (("pyridine",), 0.65),
+        (("pyridine",), 0.63),
         (("imidazole",), 0.80),
         (("amidine_guanidine",), 1.05),
     ],
@@ -201,3 +204,47 @@ def test_atom_indices_refer_to_the_molecule_as_given():
     assert sites == {0: "aryl_amine", 6: "primary_amine"}
     sites = {s.atom_index: s.kind for s in basic_sites("NCc1ccc(N)cc1")}
     assert sites == {0: "primary_amine", 6: "aryl_amine"}
+
+
+# Ring systems and effects added with the fused-azine anchors (values from memory, Perrin's
+# compilation and the CRC Handbook; the qualitative facts are textbook heterocyclic chemistry,
+# J. A. Joule, K. Mills, Heterocyclic Chemistry, 5th ed., Wiley 2010).
+def _first(smiles):
+    site, macro = first_protonation(smiles)
+    return site, macro
+
+
+def test_purines_protonate_on_the_pyrimidine_ring():
+    from rdkit import Chem
+
+    for smiles in ("c1ncc2[nH]cnc2n1", "Nc1ncnc2[nH]cnc12", "Cn1cnc2cncnc21"):
+        site, _ = _first(smiles)
+        mol = Chem.MolFromSmiles(smiles)
+        ring6 = [r for r in mol.GetRingInfo().AtomRings() if len(r) == 6][0]
+        assert site.atom_index in ring6, smiles
+
+
+def test_1h_1_2_4_triazole_is_a_weak_base():
+    _, macro = _first("c1nc[nH]n1")  # 2.19 [P65], the 1H tautomer as usually drawn
+    assert abs(macro - 2.19) <= 0.3
+
+
+def test_fused_ring_substituents_act_on_naphthylamines():
+    _, parent = _first("Nc1cccc2ccccc12")  # 1-naphthylamine 3.92 (CRC)
+    _, nitro = _first("Nc1cccc2c([N+](=O)[O-])cccc12")
+    assert abs(parent - 3.92) <= 0.2
+    assert nitro < parent - 0.5
+
+
+def test_ortho_alkyl_twists_a_dimethylamino_group_and_raises_its_basicity():
+    _, plain = _first("CN(C)c1ccccc1")  # N,N-dimethylaniline 5.07 (CRC)
+    _, ortho = _first("CN(C)c1ccccc1C")  # N,N-dimethyl-o-toluidine 5.86 (CRC, from memory)
+    assert ortho > plain + 0.4
+    assert abs(ortho - 5.86) <= 0.5
+
+
+def test_fused_azines_take_their_parent_values():
+    # quinoxaline 0.60, phthalazine 3.47, 1,8-naphthyridine 3.39, 7-azaindole 4.59 [P65]
+    for smiles, value in (("c1ccc2nccnc2c1", 0.60), ("c1ccc2cnncc2c1", 3.47), ("c1cnc2ncccc2c1", 3.39), ("c1cnc2[nH]ccc2c1", 4.59)):
+        _, macro = _first(smiles)
+        assert abs(macro - value) <= 0.35, (smiles, macro)

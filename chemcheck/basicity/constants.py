@@ -127,3 +127,8 @@ BENZYL_RING_FACTOR = 1.06 / 3.14
 # estimate from textbook cases (nitroquinolines about 2.3 units below quinoline; each amino group
 # of 3,6-diaminoacridine about +2 above acridine), not a literature constant.
 FUSED_RING_FACTOR = 0.5
+
+# Steric inhibition of resonance in N,N-dialkylanilines with an ortho alkyl group: the ortho
+# increment per crowding alkyl group. From N,N-dimethyl-o-toluidine (5.86) against
+# N,N-dimethylaniline (5.07), CRC values recalled from memory.
+ORTHO_ALKYL_TWIST = 0.8
