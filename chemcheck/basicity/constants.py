@@ -132,3 +132,8 @@ FUSED_RING_FACTOR = 0.5
 # increment per crowding alkyl group. From N,N-dimethyl-o-toluidine (5.86) against
 # N,N-dimethylaniline (5.07), CRC values recalled from memory.
 ORTHO_ALKYL_TWIST = 0.8
+
+# Steric inhibition of resonance of a ring substituent (NR2, NO2, COOR, COR) by groups on the
+# ring atoms next to it: the share of its resonance effect lost per flanking group. Our
+# estimate (a flanked NMe2 or NO2 keeps about its inductive effect, sigma_m).
+TWIST_LOSS = 0.4

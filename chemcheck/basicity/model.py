@@ -352,6 +352,45 @@ def _oxo_or_nr(key: str, d: int) -> tuple[float, float]:
     return 0.0, K.RING_NR_SIGMA["meta" if d == 2 else "para"]
 
 
+_TWISTABLE = {"NR2": 1.0, "NHR": 0.5, "NO2": 1.0, "COOR": 1.0, "COR": 1.0}
+
+
+def _twisted_sigma(mol: Chem.Mol, ring: list[int], centre: int, key: str, d: int, sigma: float) -> float:
+    """Steric inhibition of resonance (B. M. Wepster, Recl. Trav. Chim. 1957, 76, 335 and later
+    papers): a conjugating substituent with non-H neighbours on both sides of it in the ring
+    turns out of the ring plane and loses part of its resonance effect. Each flanking group
+    removes K.TWIST_LOSS of the resonance part (sigma at this position minus sigma_m), weighted
+    by how bulky the group is (NHR half of NR2). Our estimate of the size; the effect is textbook."""
+    weight = _TWISTABLE.get(key)
+    if weight is None or d < 2:
+        return sigma
+    sm = K.HAMMETT.get(key, (0.0, 0.0, 0.0))[0]
+    pos = _ordered_positions(ring, centre)
+    at = [i for i in ring if pos[i] == d]
+    best = sigma
+    for idx in at:
+        atom = mol.GetAtomWithIdx(idx)
+        has = any(
+            x.GetIdx() not in ring and x.GetAtomicNum() > 1 and _key_of(mol, atom, x, ring) == key
+            for x in atom.GetNeighbors()
+        )
+        if not has:
+            continue
+        flank = 0
+        for nb in atom.GetNeighbors():
+            if nb.GetIdx() not in ring or nb.GetIdx() == centre:
+                continue
+            if any(y.GetIdx() not in ring and y.GetAtomicNum() > 1 for y in nb.GetNeighbors()):
+                flank += 1
+        if flank:
+            best = sigma - min(1.0, K.TWIST_LOSS * flank * weight) * (sigma - sm)
+    return best
+
+
+def _key_of(mol: Chem.Mol, atom: Chem.Atom, x: Chem.Atom, ring: list[int]) -> str:
+    return classify_substituent(mol, atom, x, set(ring))
+
+
 def _hammett_sum(
     mol: Chem.Mol,
     ring: list[int],
@@ -385,7 +424,7 @@ def _hammett_sum(
         if d == 1:
             ortho += ortho_table.get(key, default_ortho if key != "H" else 0.0)
         else:
-            sigma += _sigma_for(key, d, para_minus)
+            sigma += _twisted_sigma(mol, ring, centre, key, d, _sigma_for(key, d, para_minus))
     return ortho, sigma
 
 
