@@ -258,3 +258,10 @@ def test_flanking_groups_twist_a_dimethylamino_group_out_of_conjugation():
     _, lutidine = _first("Cc1cnccc1C")  # 3,4-lutidine 6.46 (CRC, from memory), above pyridine
     assert flanked < dmap
     assert lutidine > 5.25
+
+
+def test_substituents_on_the_benzo_ring_act_on_benzimidazoles():
+    # 1-methylbenzimidazole 5.57 (Perrin, from memory); a nitro group on the benzo ring lowers it
+    _, parent = _first("Cn1cnc2ccccc21")
+    _, nitro = _first("Cn1cnc2ccc([N+](=O)[O-])cc21")
+    assert nitro < parent - 1.0

@@ -621,6 +621,8 @@ def azine(mol: Chem.Mol, n_idx: int) -> tuple[float, str]:
     if len(fused_atoms) >= 2:
         pka += _AZOLE_BENZO
         sigma += _fused_aza_sigma(mol, ring5, n_idx)
+        # substituents on the fused ring (5-nitrobenzimidazoles), as for quinolines
+        sigma += _fused_ring_sigma(mol, ring5, n_idx)
     return pka - K.AZOLE_RHO * sigma, f"ring class ({label}) with substituent terms"
 
 
