@@ -19,6 +19,7 @@ import math
 import re
 from dataclasses import dataclass
 
+from ._memo import Memo
 from .errors import AmountError
 
 __all__ = ["Amount", "parse_amount"]
@@ -38,6 +39,8 @@ def _convert(value: float, unit: str, target: str) -> float:
     from .units import Q_
 
     return float(Q_(value, unit).to(target).magnitude)
+
+
 _HINTS = {
     "ml": "mL", "ul": "µL", "Ml": "mL", "MG": "mg", "G": "g", "MMOL": "mmol", "Mmol": "mmol",
     "mm": "mM (millimolar) or mmol", "gm": "g", "gr": "g", "l": "L", "mg.": "mg",
@@ -96,7 +99,7 @@ def _number(text: str, key: str, whole: str) -> float:
     return v
 
 
-_READ: dict[str, Amount] = {}
+_READ = Memo()
 
 
 def parse_amount(text: str, key: str | None = None) -> Amount:
@@ -106,11 +109,7 @@ def parse_amount(text: str, key: str | None = None) -> Amount:
         hit = _READ.get(text)
         if hit is not None:
             return hit
-    out = _parse_amount(text, key)
-    if len(_READ) > 4096:
-        _READ.clear()
-    _READ[text] = out
-    return out
+    return _READ.put(text, _parse_amount(text, key))
 
 
 def _parse_amount(text: str, key: str | None = None) -> Amount:

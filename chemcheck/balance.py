@@ -15,6 +15,7 @@ from functools import lru_cache
 from rdkit import Chem
 from rdkit.Chem import rdMolDescriptors
 
+from ._memo import Memo
 from .reaction import Component, Reaction
 
 __all__ = ["Balance", "balance", "element_counts"]
@@ -120,21 +121,18 @@ def _coefficient_sets(n: int) -> tuple[tuple[int, ...], ...]:
     return tuple(sorted(itertools.product(*ranges), key=sum))
 
 
-_COUNTS: dict[str, Counter] = {}
+_COUNTS = Memo()
 
 
-def _counts_of(component: Component) -> Counter:
-    """Element counts of a component, remembered by its canonical SMILES."""
+def counts_of(component: Component) -> Counter:
+    """Element counts of a component (a fresh Counter), remembered by its canonical SMILES."""
     hit = _COUNTS.get(component.smiles)
     if hit is None:
-        hit = element_counts(component.mol)
-        if len(_COUNTS) > 4096:
-            _COUNTS.clear()
-        _COUNTS[component.smiles] = hit
+        hit = _COUNTS.put(component.smiles, element_counts(component.mol))
     return Counter(hit)
 
 
-_BALANCED: dict[tuple[tuple[str, ...], tuple[str, ...]], tuple] = {}
+_BALANCED = Memo()  # (reactant SMILES, product SMILES) -> result of _balance
 
 
 def balance(reaction: Reaction) -> Balance:
@@ -147,10 +145,7 @@ def balance(reaction: Reaction) -> Balance:
     key = (tuple(c.smiles for c in reactants), tuple(c.smiles for c in products))
     hit = _BALANCED.get(key)
     if hit is None:
-        hit = _balance(reaction)
-        if len(_BALANCED) > 4096:
-            _BALANCED.clear()
-        _BALANCED[key] = hit
+        hit = _BALANCED.put(key, _balance(reaction))
     drawn_ok, ok, coeffs, missing, residual, charge = hit
     species = reactants + products
     return Balance(drawn_ok, ok, {c.index: k for c, k in zip(species, coeffs)}, list(missing), dict(residual), charge)
@@ -160,7 +155,7 @@ def _balance(reaction: Reaction) -> tuple:
     reactants = reaction.reactants
     products = reaction.products
     species: list[tuple[Component, int]] = [(c, 1) for c in reactants] + [(c, -1) for c in products]
-    vectors = [_counts_of(c) for c, _ in species]
+    vectors = [counts_of(c) for c, _ in species]
     charges = [Chem.GetFormalCharge(c.mol) for c, _ in species]
 
     def diff_for(coeffs: tuple[int, ...]) -> tuple[Counter, int]:

@@ -16,13 +16,13 @@ from __future__ import annotations
 
 import re
 from collections.abc import Iterable, Sequence
-from collections import OrderedDict
 from dataclasses import dataclass, field, replace
 
 from rdkit import Chem
 from rdkit.Chem import rdMolDescriptors
 
 from . import _rdlog
+from ._memo import Memo
 from .errors import LimitError, ParseError
 from .molecule import read_smiles
 from .names import kind_for_smiles, lookup_name, name_for_smiles
@@ -86,7 +86,7 @@ class Component:
                     except (RuntimeError, ValueError):
                         key = ""
                 if self.mol.GetNumAtoms() <= _CACHE_ATOMS:
-                    _remember(_INCHIKEYS, self.smiles, key)
+                    _INCHIKEYS.put(self.smiles, key)
             self._inchikey = key
         return self._inchikey
 
@@ -179,28 +179,20 @@ def _looks_like_smiles(token: str) -> bool:
 # (and the check pad the same fragments on every keystroke); names, SMILES parsing,
 # sanitization, formula and mass are then read once. Each reaction gets its own copy of the
 # molecule, and the perception caches are told that the copy has the same canonical atom order.
-_FRAGMENTS: OrderedDict[str, Fragment] = OrderedDict()
-_COMPONENTS: OrderedDict[tuple[str, ...], tuple] = OrderedDict()
-_INCHIKEYS: OrderedDict[str, str] = OrderedDict()  # by canonical SMILES
-_CACHE_MAX = 2048
+_FRAGMENTS = Memo(2048)  # text -> Fragment
+_COMPONENTS = Memo(2048)  # fragment texts -> (template molecule, fields, canonical key)
+_INCHIKEYS = Memo(2048)  # canonical SMILES -> InChIKey
 _CACHE_ATOMS = 150  # larger molecules are rare; keep memory bounded
-
-
-def _remember(cache: OrderedDict, key, value) -> None:
-    cache[key] = value
-    if len(cache) > _CACHE_MAX:
-        cache.popitem(last=False)
 
 
 def _read_fragment(text: str, start: int, side: int, number: int) -> Fragment:
     hit = _FRAGMENTS.get(text)
     if hit is not None:
-        _FRAGMENTS.move_to_end(text)
         # the molecule is shared with the cache: components copy it (or combine it) before use
         return replace(hit, start=start, side=side)
     frag = _read_fragment_uncached(text, start, side, number)
     if frag.mol is not None and frag.mol.GetNumAtoms() <= _CACHE_ATOMS:
-        _remember(_FRAGMENTS, text, replace(frag, mol=Chem.Mol(frag.mol)))
+        _FRAGMENTS.put(text, replace(frag, mol=Chem.Mol(frag.mol)))
     return frag
 
 
@@ -369,7 +361,6 @@ def _build_component(index: int, frags: list[Fragment], text_full: str) -> Compo
     start = frags[0].start
     end = frags[-1].start + len(frags[-1].text)
     if hit is not None:
-        _COMPONENTS.move_to_end(key)
         template, fields, canon = hit
         mol = Chem.Mol(template)
         if canon is not None:
@@ -387,7 +378,7 @@ def _build_component(index: int, frags: list[Fragment], text_full: str) -> Compo
             source=comp.source, sanitization=comp.sanitization, notes=comp.notes, fragments=comp.fragments,
             kind_hint=comp.kind_hint,
         )
-        _remember(_COMPONENTS, key, (template, fields, canonical_key(comp.mol)))
+        _COMPONENTS.put(key, (template, fields, canonical_key(comp.mol)))
     return comp
 
 

@@ -28,6 +28,7 @@ from functools import lru_cache
 from rdkit import Chem
 
 from .. import _rdlog
+from .._memo import Memo
 from ..errors import ParseError
 from ..molecule import read_smiles
 from ..perceive import canonical_key, nitrogen_sites
@@ -244,19 +245,15 @@ def basic_sites(smiles_or_mol, *, max_sites: int = 8) -> list[Site]:
     if key is None:
         return _compute(mol, max_sites)
     smiles, order = key
-    hit = _REMAPPED.get((smiles, max_sites))
-    if hit is not None and hit[0] == order:
-        return list(hit[1])
-    cached = _basic_sites_cached(smiles, max_sites)
-    out = tuple(sorted((replace(s, atom_index=order[s.atom_index]) for s in cached), key=lambda s: s.atom_index))
-    if len(_REMAPPED) > 4096:
-        _REMAPPED.clear()
-    _REMAPPED[(smiles, max_sites)] = (order, out)
-    return list(out)
+    hit = _REMAPPED.get_for((smiles, max_sites), order)
+    if hit is None:
+        cached = _basic_sites_cached(smiles, max_sites)
+        hit = tuple(sorted((replace(s, atom_index=order[s.atom_index]) for s in cached), key=lambda s: s.atom_index))
+        _REMAPPED.put_for((smiles, max_sites), order, hit)
+    return list(hit)
 
 
-# the last remapping of each cached result, with the atom order it was made for
-_REMAPPED: dict[tuple[str, int], tuple[list[int], tuple]] = {}
+_REMAPPED = Memo()  # the cached sites in the atom order of the molecule last asked about
 
 
 @lru_cache(maxsize=2048)

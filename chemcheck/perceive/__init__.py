@@ -10,6 +10,7 @@ from functools import lru_cache
 
 from rdkit import Chem
 
+from .._memo import Memo
 from .catalog import GROUPS, NITROGEN_CLASSES, compiled
 
 __all__ = [
@@ -298,7 +299,7 @@ _HINDERED = tuple(
 )
 
 
-_HINDERED_BY_SMILES: dict[str, bool] = {}
+_HINDERED_BY_SMILES = Memo()
 
 
 def is_hindered_base(mol: Chem.Mol) -> bool:
@@ -310,9 +311,7 @@ def is_hindered_base(mol: Chem.Mol) -> bool:
     _ensure_rings(mol)
     out = any(mol.HasSubstructMatch(p) for p in _HINDERED)
     if key is not None:
-        if len(_HINDERED_BY_SMILES) > 4096:
-            _HINDERED_BY_SMILES.clear()
-        _HINDERED_BY_SMILES[key[0]] = out
+        _HINDERED_BY_SMILES.put(key[0], out)
     return out
 
 
@@ -373,7 +372,7 @@ def agent_kind(nitrogens, groups: list[GroupMatch], hint: str | None) -> str:
     return "other"
 
 
-_PERCEIVED: dict[tuple[str, str | None], tuple[list[int], Perception]] = {}
+_PERCEIVED = Memo()  # (canonical SMILES, hint) -> Perception, for one atom order
 
 
 def perceive(mol: Chem.Mol, hint: str | None = None) -> Perception:
@@ -381,16 +380,10 @@ def perceive(mol: Chem.Mol, hint: str | None = None) -> Perception:
     by canonical SMILES together with the atom order it was worked out for (a Perception is
     immutable), so a molecule drawn the same way again costs one lookup."""
     key = _canonical_key(mol)
-    if key is not None:
-        hit = _PERCEIVED.get((key[0], hint))
-        if hit is not None and hit[0] == key[1]:
-            return hit[1]
-    out = _perceive(mol, hint)
-    if key is not None:
-        if len(_PERCEIVED) > 4096:
-            _PERCEIVED.clear()
-        _PERCEIVED[(key[0], hint)] = (key[1], out)
-    return out
+    if key is None:
+        return _perceive(mol, hint)
+    hit = _PERCEIVED.get_for((key[0], hint), key[1])
+    return hit if hit is not None else _PERCEIVED.put_for((key[0], hint), key[1], _perceive(mol, hint))
 
 
 def _perceive(mol: Chem.Mol, hint: str | None) -> Perception:

@@ -741,12 +741,12 @@ def uphill_proton_transfer(ctx: Context):
 
     from rdkit import Chem
 
-    from ..balance import _counts_of
+    from ..balance import counts_of
 
     def heavy(comps):
         total: Counter = Counter()
         for c in comps:
-            total.update(_counts_of(c))
+            total.update(counts_of(c))
         total.pop("H", None)
         return +total
 
