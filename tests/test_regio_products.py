@@ -129,3 +129,10 @@ def test_alkene_findings_highlight_the_carbons_that_lose_h_and_the_leaving_group
     f = r.by_rule("elimination-regiochemistry")[0]
     atoms = {a for c, a in f.atoms if c == 0}
     assert {2, 3, 4, 5} <= atoms  # beta C2 (drawn), alpha C3, beta C4 (methyl, expected), N5
+
+
+def test_an_amide_in_sulfuric_acid_is_not_predicted_to_be_sulfonated():
+    # an anilide or nitrile in sulfuric acid with nothing else is there for hydrolysis
+    for text in ("CC(=O)Nc1ccccc1>OS(=O)(=O)O>", "N#Cc1ccccc1>OS(=O)(=O)O>"):
+        assert not chemcheck.check(text).to_dict().get("predictions"), text
+    assert chemcheck.check("Cc1ccccc1>OS(=O)(=O)O>").to_dict().get("predictions")

@@ -54,8 +54,7 @@ def _verdict(rule_obj, pred: Prediction, what: str, atoms=()):
     if drawn is None or drawn.label == "major":
         return None
     major = [c for c in cands if c.label == "major"]
-    where = list(dict.fromkeys([(pred.substrate, a) for a in drawn.atoms + major[0].atoms] + list(atoms)))
-    atoms = where
+    atoms = list(dict.fromkeys([(pred.substrate, a) for a in drawn.atoms + major[0].atoms] + list(atoms)))
     expected = ", ".join(c.smiles for c in major)
     sev = "warning" if drawn.label == "minor" else "error"
     word = "a minor product" if drawn.label == "minor" else "not expected to form"
@@ -253,16 +252,17 @@ def _ring_class(ctx: Context):
                 x = c.mol.GetAtomWithIdx(g.centre).GetSymbol()
                 kind = {"Br": "bromination", "Cl": "chlorination", "I": "iodination"}[x]
                 return kind, x, f"halogen source {c.label}" + (" with a Lewis acid" if la else ""), la, c
-    sulfonation = _sulfonation(ctx, comps, names)
+    sulfonation = _sulfonation(ctx, comps)
     if sulfonation is not None:
         electros, evidence, agent = sulfonation
         return "sulfonation", electros, evidence, la, agent
     return None
 
 
-_SULFONIC = [
-    ("S(=O)(=O)O", 0.0, "sulfonic acid"),
-]
+_SULFONIC = (("S(=O)(=O)O", 0.0, "sulfonic acid"),)
+# what else an arene in sulfuric acid could be there for (esterification, hydrolysis, hydration)
+_ACID_CATALYSED = ("alcohol", "carboxylic_acid", "ester", "aldehyde", "ketone", "acid_halide", "anhydride")
+_ACID_CATALYSED_N = ("amide", "nitrile", "imide", "carbamate")
 _ARYL_SULFONYL = Chem.MolFromSmarts("c[SX4](=[OX1])(=[OX1])[OX2H1,OX1-,Cl]")
 
 
@@ -270,7 +270,7 @@ def _aryl_sulfonyl_count(mol: Chem.Mol) -> int:
     return len(mol.GetSubstructMatches(_ARYL_SULFONYL))
 
 
-def _sulfonation(ctx: Context, comps, names):
+def _sulfonation(ctx: Context, comps):
     """(electrophiles, evidence, agent component) of a sulfonation, or None.
 
     Recognised from a sulfonating agent (sulfur trioxide or oleum, an SO3-amine complex,
@@ -294,10 +294,8 @@ def _sulfonation(ctx: Context, comps, names):
     others = [c for c in rxn.reactants if c.index != acid.index]
     alone = (
         not rxn.products and len(others) == 1
-        and not ctx.perception(others[0]).has(
-            "alcohol", "carboxylic_acid", "ester", "amide", "nitrile", "alkene", "aldehyde", "ketone", "acid_halide",
-            "anhydride",
-        )
+        and not ctx.perception(others[0]).has(*_ACID_CATALYSED)
+        and not any(s.kind in _ACID_CATALYSED_N for s in ctx.perception(others[0]).nitrogens)
     )
     if gained or alone:
         why = "the drawn product gains an aryl sulfonic acid" if gained else "an arene in concentrated sulfuric acid and nothing else"
