@@ -136,3 +136,11 @@ def test_an_amide_in_sulfuric_acid_is_not_predicted_to_be_sulfonated():
     for text in ("CC(=O)Nc1ccccc1>OS(=O)(=O)O>", "N#Cc1ccccc1>OS(=O)(=O)O>"):
         assert not chemcheck.check(text).to_dict().get("predictions"), text
     assert chemcheck.check("Cc1ccccc1>OS(=O)(=O)O>").to_dict().get("predictions")
+
+
+def test_the_fix_says_how_to_make_the_product_drawn():
+    # the n-propylarene is made by acylation then reduction (Clayden ch. 21, common practice)
+    f = chemcheck.check("c1ccccc1.CCCCl>AlCl3>CCCc1ccccc1").by_rule("ring-substitution-regiochemistry")[0]
+    assert "acylation" in f.fix and "Wolff-Kishner" in f.fix
+    f = chemcheck.check(TRANS + ".CC[O-].[Na+]>CCO>CC1=CCCCC1").by_rule("elimination-regiochemistry")[0]
+    assert "diastereomer" in f.fix and "trisubstituted" in f.message

@@ -23,6 +23,7 @@ class Candidate:
     score: float = 0.0
     drawn: bool = False
     atoms: tuple[int, ...] = ()  # substrate atoms where the change happens (for highlighting)
+    route: str = ""  # how to make this product instead, when it is not the expected one
 
     def to_dict(self) -> dict:
         return {"smiles": self.smiles, "rank": self.rank, "label": self.label, "reason": self.reason, "drawn": self.drawn}

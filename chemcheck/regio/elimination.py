@@ -142,6 +142,9 @@ class _StereoView:
         return emb.anti_alkene(alpha, leaving, beta, hs[0]) if len(hs) == 1 else None
 
 
+_DEGREE = {0: "unsubstituted", 1: "monosubstituted", 2: "disubstituted", 3: "trisubstituted", 4: "tetrasubstituted"}
+
+
 def _opposite_geometry(smiles: str) -> str | None:
     """The same alkene with its one specified C=C geometry inverted."""
     with _rdlog.captured():
@@ -184,17 +187,19 @@ def predict(mol: Chem.Mol, mode: str, why: str) -> list[Candidate]:
                 conj = _conjugated(mol, a, b)
                 if mode == "zaitsev":
                     score = sub + (1.5 if conj else 0.0) + 0.05 * nh
-                    reason = f"{sub}-substituted alkene{' conjugated' if conj else ''}; {why}"
+                    reason = f"{_DEGREE.get(sub, 'substituted')} alkene{', conjugated' if conj else ''}; {why}"
                 else:
                     score = -sub + (1.0 if conj else 0.0) + 0.05 * nh
-                    reason = f"{sub}-substituted alkene from the most accessible beta-H ({nh} H); {why}"
+                    reason = f"{_DEGREE.get(sub, 'substituted')} alkene from the most accessible beta-H ({nh} H); {why}"
                 verdict = view.ring_verdict(alpha, lg, b) if in_ring else None
                 if verdict == "cis":
                     cands.append(Candidate(
                         smi, 0, "",
-                        "the only beta-H on this carbon is cis to the leaving group, so it cannot be "
+                        f"{_DEGREE.get(sub, 'substituted')} alkene, but the only beta-H on this carbon is cis to the "
+                        "leaving group, so it cannot be "
                         "anti-periplanar (trans-diaxial): no E2 alkene forms on this side", score - 10.0,
                         atoms=(alpha, b),
+                        route="start from the diastereomer in which this beta-H is trans to the leaving group",
                     ))
                     continue
                 if verdict == "trans" and _six_ring(mol, alpha, b) is not None:
@@ -210,6 +215,7 @@ def predict(mol: Chem.Mol, mode: str, why: str) -> list[Candidate]:
                             other, 0, "",
                             "the other alkene geometry needs a syn-periplanar elimination, which E2 does not take",
                             score - 10.0, atoms=(alpha, b),
+                            route="start from the other diastereomer of the substrate",
                         ))
                     continue
                 cands.append(Candidate(smi, 0, "", reason, score, atoms=(alpha, b)))

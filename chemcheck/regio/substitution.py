@@ -123,7 +123,8 @@ def _distance(ring: list[int], a: int, b: int) -> int:
     return min(d, 6 - d)
 
 
-Electrophile = tuple[str, float, str]  # SMILES rooted at the bonding atom, score bonus, note
+# SMILES rooted at the bonding atom, score bonus, note[, how to make that product otherwise]
+Electrophile = tuple
 
 
 def predict(mol: Chem.Mol, electrophiles: str | list[Electrophile], klass: str, bulky: bool) -> list[Candidate]:
@@ -136,10 +137,10 @@ def predict(mol: Chem.Mol, electrophiles: str | list[Electrophile], klass: str, 
         electrophiles = [(electrophiles, 0.0, "")]
     frags = []
     with _rdlog.captured():
-        for smi, bonus, note in electrophiles:
+        for smi, bonus, note, *route in electrophiles:
             frag = Chem.MolFromSmiles(smi)
             if frag is not None:
-                frags.append((frag, bonus, note))
+                frags.append((frag, bonus, note, route[0] if route else ""))
     if not frags:
         return []
     cands = []
@@ -178,10 +179,11 @@ def predict(mol: Chem.Mol, electrophiles: str | list[Electrophile], klass: str, 
                 score -= 1.5
                 reasons.append("between two substituents")
             where = "; ".join(reasons) or "unsubstituted ring"
-            for frag, bonus, note in frags:
+            for frag, bonus, note, route in frags:
                 smi = attach(mol, pos, frag)
                 if smi:
-                    cands.append(Candidate(smi, 0, "", f"{note}; {where}" if note else where, score + bonus, atoms=(pos,)))
+                    reason = f"{note}; {where}" if note else where
+                    cands.append(Candidate(smi, 0, "", reason, score + bonus, atoms=(pos,), route=route))
     return rank_labels(cands, minor_gap=0.5, none_gap=2.5)
 
 
@@ -281,8 +283,12 @@ def alkyl_cations(alkane: Chem.Mol, centre: int) -> list[Electrophile]:
     if moved:
         out.append((moved, gain, f"rearranged alkyl group: the {kinds[min(max(start, 1), 3)]} carbocation becomes "
                     f"{kinds[min(final, 3)]} by a {how}"))
+    route = (
+        "Friedel-Crafts acylation with the acyl chloride of the same chain (acylium ions do not rearrange), "
+        "then reduction of the ketone (Wolff-Kishner or Clemmensen)"
+    )
     if gain >= 2.5:
-        out.append((drawn, 0.0, "unrearranged alkyl group: not expected, the primary carbocation rearranges"))
+        out.append((drawn, 0.0, "unrearranged alkyl group: not expected, the primary carbocation rearranges", route))
     else:
-        out.append((drawn, 0.0, "unrearranged alkyl group (formed in part, more at low temperature)"))
+        out.append((drawn, 0.0, "unrearranged alkyl group (formed in part, more at low temperature)", route))
     return out

@@ -62,7 +62,9 @@ def _verdict(rule_obj, pred: Prediction, what: str, atoms=()):
         f"The {what} drawn, {drawn.smiles}, is {word} in this {pred.reaction_class}: expected major "
         f"{expected} ({major[0].reason}). The drawn one: {drawn.reason}.",
         atoms=atoms,
-        fix=f"Expect {expected} as the major product" + (f"; {drawn.smiles} forms as a minor product." if drawn.label == "minor" else "."),
+        fix=f"Expect {expected} as the major product"
+        + (f"; {drawn.smiles} forms as a minor product." if drawn.label == "minor" else ".")
+        + (f" To make {drawn.smiles}: {drawn.route}." if drawn.route else ""),
         severity=sev,
     )
 
