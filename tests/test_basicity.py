@@ -124,14 +124,14 @@ def _accuracy(path, cls=None):
 @pytest.mark.parametrize(
     "classes,limit",
     [
-        (None, 0.76),
+        (None, 0.70),
         (("aniline_primary",), 0.30),
-        (("azine_polyaza",), 1.10),
-        (("other_heteroaromatic",), 0.85),
+        (("azine_polyaza",), 1.05),
+        (("other_heteroaromatic",), 0.78),
         (("aliphatic_primary", "aliphatic_secondary", "aliphatic_tertiary"), 0.62),
-        (("pyridine",), 0.60),
-        (("imidazole",), 0.80),
-        (("amidine_guanidine",), 1.05),
+        (("pyridine",), 0.52),
+        (("imidazole",), 0.60),
+        (("amidine_guanidine",), 0.65),
     ],
 )
 def test_accuracy_on_the_iupac_dataset(pka_dataset_dir, classes, limit):
@@ -142,7 +142,7 @@ def test_accuracy_on_the_iupac_dataset(pka_dataset_dir, classes, limit):
 
 def test_multisite_accuracy(pka_dataset_dir):
     mae, n = _accuracy(pka_dataset_dir / "amine_pka_multisite_dev.csv")
-    assert n > 200 and mae <= 0.9
+    assert n > 200 and mae <= 0.76
 
 
 @pytest.mark.parametrize(
@@ -265,3 +265,66 @@ def test_substituents_on_the_benzo_ring_act_on_benzimidazoles():
     _, parent = _first("Cn1cnc2ccccc21")
     _, nitro = _first("Cn1cnc2ccc([N+](=O)[O-])cc21")
     assert nitro < parent - 1.0
+
+
+def test_a_peri_group_crowds_the_quinoline_nitrogen():
+    # 8-methylquinoline 4.60 against quinoline 4.90, and 2,8-dimethylquinoline below quinaldine
+    # 5.83 (Perrin; the substituted values from memory): a methyl group raises pyridine basicity
+    # everywhere else
+    _, quinoline = _first("c1ccc2ncccc2c1")
+    _, peri = _first("Cc1cccc2cccnc12")
+    _, quinaldine = _first("Cc1ccc2ccccc2n1")
+    _, both = _first("Cc1ccc2cccc(C)c2n1")
+    assert peri < quinoline
+    assert abs(peri - 4.60) <= 0.5
+    assert both < quinaldine - 0.8
+
+
+def test_a_donor_para_to_the_other_ring_nitrogen_adds_little():
+    # 2,4-diaminopyrimidine 7.40, 4,6-diaminopyrimidine 5.8 (Perrin, from memory): additive
+    # sums put both near 7.3
+    _, d24 = _first("Nc1ccnc(N)n1")
+    _, d46 = _first("Nc1cc(N)ncn1")
+    assert abs(d24 - 7.40) <= 0.5
+    assert abs(d46 - 5.8) <= 0.5
+    assert d46 < d24 - 0.8
+
+
+def test_para_acceptors_on_pyridines_act_by_their_field_effect():
+    # the class model alone (these are also reference compounds): 4-acetylpyridine 3.51,
+    # isonicotinamide 3.61, 4-cyanopyridine 1.90 (CRC, from memory); sigma_p puts them 0.5-1.4
+    # units too low
+    from chemcheck.basicity import model
+
+    for smiles, value in (("CC(=O)c1ccncc1", 3.51), ("NC(=O)c1ccncc1", 3.61), ("N#Cc1ccncc1", 1.90)):
+        mol = Chem.MolFromSmiles(smiles)
+        n = next(a.GetIdx() for a in mol.GetAtoms() if a.GetIsAromatic() and a.GetAtomicNum() == 7)
+        pka, _ = model.azine(mol, n)
+        assert abs(pka - value) <= 0.6, (smiles, pka)
+
+
+def test_a_pyridine_aldehyde_is_counted_as_its_hydrate():
+    # pyridine-4-carboxaldehyde is largely hydrated in water; its measured pKa (4.7, Perrin,
+    # from memory) lies well above that of 4-acetylpyridine (3.51), which is not
+    _, aldehyde = _first("O=Cc1ccncc1")
+    _, ketone = _first("CC(=O)c1ccncc1")
+    assert aldehyde > ketone + 0.7
+
+
+def test_substituents_next_to_the_basic_nitrogen_of_an_azole():
+    # 3,5-dimethylpyrazole 4.1 against pyrazole 2.48 (Perrin, the first from memory)
+    _, value = _first("Cc1cc(C)[nH]n1")
+    assert abs(value - 4.1) <= 0.5
+    # an electron-poor group on the pyrrole-type N lowers an imidazole: 1-benzylimidazole 6.7
+    # (from memory) against 1-methylimidazole 7.06 (Perrin)
+    _, benzyl = _first("c1ccc(Cn2ccnc2)cc1")
+    assert 6.3 <= benzyl < 7.06
+
+
+def test_ring_amidines():
+    # 2-methyl-2-imidazoline (lysidine) about 11.0 and 2-phenyl-2-imidazoline about 9.9 (from
+    # memory): five-membered cyclic amidines lie about a unit below their open-chain parents
+    # (acetamidine 12.4, benzamidine 11.6, Perrin)
+    for smiles, value in (("CC1=NCCN1", 11.0), ("c1ccc(C2=NCCN2)cc1", 9.9)):
+        _, macro = _first(smiles)
+        assert abs(macro - value) <= 0.6, (smiles, macro)

@@ -163,7 +163,9 @@ def _anchor(mol: Chem.Mol, idx: int, fam: str) -> tuple[_Ref, bool] | None:
     """The best reference for this site: (ref, exact) where exact means the same compound."""
     key = Chem.MolToSmiles(mol) if mol.GetNumAtoms() < 200 else ""
     best: _Ref | None = None
+    best_rank = None
     exact = False
+    ring_here = _site_ring(mol, idx)
     for ref in _references():
         if ref.family != fam or ref.heavy > mol.GetNumHeavyAtoms():
             continue
@@ -172,10 +174,19 @@ def _anchor(mol: Chem.Mol, idx: int, fam: str) -> tuple[_Ref, bool] | None:
                 continue
             if ref.smiles == key:
                 return ref, True
-            if best is None or ref.heavy > best.heavy:
-                best = ref
+            # a reference whose N sits in a ring of the same size comes first (an N-alkyl
+            # aziridine anchors on aziridine, not on ethylamine), then the larger reference
+            rank = (_site_ring(ref.mol, ref.site) == ring_here, ref.heavy)
+            if best_rank is None or rank > best_rank:
+                best, best_rank = ref, rank
             break
     return (best, exact) if best is not None else None
+
+
+def _site_ring(mol: Chem.Mol, idx: int) -> int:
+    """Size of the smallest ring through atom ``idx`` (0 when it is in none)."""
+    sizes = [len(r) for r in mol.GetRingInfo().AtomRings() if idx in r]
+    return min(sizes) if sizes else 0
 
 
 def _site_value(mol: Chem.Mol, idx: int, kind: str) -> tuple[float, str, str, float]:

@@ -14,6 +14,7 @@ from rdkit import Chem
 
 from . import constants as K
 
+_PI_DONORS = {"NH2", "NHR", "NR2", "OMe", "O-"}
 _PI_ACCEPTORS = {"NO2", "CN", "CHO", "COR", "COOR", "COOH", "CONH2", "SO2R", "SO2N", "CF3", "ethynyl", "N=N", "SH"}
 
 
@@ -298,21 +299,40 @@ def _ordered_positions(ring: list[int], start: int) -> dict[int, int]:
     return {ring[(i + k) % n]: min(k, n - k) for k in range(n)}
 
 
-def _sigma_for(key: str, position: int, para_acceptor_minus: bool) -> float:
+def _sigma_for(key: str, position: int, para_acceptor_minus: bool | None) -> float:
+    """sigma of a ring substituent at ring distance 2 (meta) or 3 (para). For a para pi-acceptor
+    ``para_acceptor_minus`` picks sigma_p- (True: anilines, whose lone pair conjugates with it),
+    sigma_p (False), or sigma_m (None: a pyridine-type N, whose lone pair lies in the ring plane
+    and cannot conjugate with the acceptor; the acceptor then acts by its field effect. It fits
+    4-cyanopyridine 1.90, 4-acetylpyridine 3.51, isonicotinamide 3.61 and methyl isonicotinate
+    3.26, CRC values from memory, which sigma_p puts 0.5-1.4 units too low)."""
     sm, sp, spm = K.HAMMETT.get(key, (0.0, 0.0, 0.0))
     if position == 2:
         return sm
     if position == 3:
-        if para_acceptor_minus and key in _PI_ACCEPTORS:
-            return spm
+        if key in _PI_ACCEPTORS:
+            if para_acceptor_minus:
+                return spm
+            if para_acceptor_minus is None:
+                return sm
         return sp
     return 0.0
 
 
 def _ring_substituents(mol: Chem.Mol, ring: list[int], centre: int):
     """Yield (position, key) for every substituent and ring aza atom, position = ring distance."""
+    for d, key, _idx in _ring_substituents_at(mol, ring, centre):
+        yield d, key
+
+
+def _ring_substituents_at(mol: Chem.Mol, ring: list[int], centre: int):
+    """As ``_ring_substituents``, with the index of the ring atom that carries each one."""
     pos = _ordered_positions(ring, centre)
     ring_set = set(ring)
+    azaring = any(
+        mol.GetAtomWithIdx(i).GetAtomicNum() == 7 and mol.GetAtomWithIdx(i).GetDegree() == 2
+        and mol.GetAtomWithIdx(i).GetTotalNumHs() == 0 for i in ring
+    )
     for idx in ring:
         if idx == centre:
             continue
@@ -320,22 +340,27 @@ def _ring_substituents(mol: Chem.Mol, ring: list[int], centre: int):
         d = pos[idx]
         if atom.GetAtomicNum() == 7:
             if atom.GetFormalCharge() > 0:
-                yield d, "ring_n+"  # a protonated or alkylated ring N: strongly withdrawing
+                yield d, "ring_n+", idx  # a protonated or alkylated ring N: strongly withdrawing
                 continue
             if atom.GetDegree() == 3 or atom.GetTotalNumHs() > 0:
-                yield d, "ring_nR"  # its lone pair is in the pi system: a donor, not an aza
+                yield d, "ring_nR", idx  # its lone pair is in the pi system: a donor, not an aza
                 continue
-            yield d, "aza"
+            yield d, "aza", idx
         elif atom.GetAtomicNum() in (8, 16):
-            yield d, "ring_" + atom.GetSymbol()
+            yield d, "ring_" + atom.GetSymbol(), idx
         for b in atom.GetBonds():
             x = b.GetOtherAtom(atom)
             if x.GetIdx() in ring_set:
                 continue
             if x.GetAtomicNum() in (8, 16) and b.GetBondType() == Chem.BondType.DOUBLE:
-                yield d, "oxo"
+                yield d, "oxo", idx
                 continue
-            yield d, classify_substituent(mol, atom, x, ring_set)
+            key = classify_substituent(mol, atom, x, ring_set)
+            if key == "CHO" and azaring:
+                # an aldehyde on an azine ring is largely hydrated in water, more so in the cation
+                # (pyridinecarboxaldehydes): it acts as its gem-diol CH(OH)2
+                key = "CH2X"
+            yield d, key, idx
 
 
 def _oxo_or_nr(key: str, d: int) -> tuple[float, float]:
@@ -399,12 +424,16 @@ def _hammett_sum(
     *,
     default_ortho: float,
     ring_hetero: float,
-    para_minus: bool,
+    para_minus: bool | None,
     five_ring: bool = False,
+    donors: list | None = None,
 ) -> tuple[float, float]:
-    """(sum of ortho increments, sum of sigma) of a ring's substituents seen from ``centre``."""
+    """(sum of ortho increments, sum of sigma) of a ring's substituents seen from ``centre``.
+
+    With ``donors`` given, each pi-donor ortho or para to the centre is also listed there as
+    (ring atom index, "ortho" or "sigma", its term) for the cross-conjugation correction."""
     ortho = sigma = 0.0
-    for d, key in _ring_substituents(mol, ring, centre):
+    for d, key, idx in _ring_substituents_at(mol, ring, centre):
         if five_ring:
             d = {1: 1, 2: 2}.get(d, 2)
         if key == "aza":
@@ -422,10 +451,95 @@ def _hammett_sum(
             sigma += ring_hetero
             continue
         if d == 1:
-            ortho += ortho_table.get(key, default_ortho if key != "H" else 0.0)
+            term = ortho_table.get(key, default_ortho if key != "H" else 0.0)
+            ortho += term
+            if donors is not None and key in _PI_DONORS:
+                donors.append((idx, "ortho", term))
         else:
-            sigma += _twisted_sigma(mol, ring, centre, key, d, _sigma_for(key, d, para_minus))
+            term = _twisted_sigma(mol, ring, centre, key, d, _sigma_for(key, d, para_minus))
+            sigma += term
+            if donors is not None and key in _PI_DONORS and d == 3:
+                donors.append((idx, "sigma", term))
     return ortho, sigma
+
+
+def _peri_groups(mol: Chem.Mol, ring: list[int], site: int) -> list[Chem.Atom]:
+    """Atoms of the groups in the peri position of a ring N next to a ring fusion (C8 of a
+    quinoline, C4/C5 of an acridine): on the atom of the fused six-membered ring next to the
+    fusion atom. A further ring fused there (benzo[h]quinoline) counts as such a group."""
+    n = mol.GetAtomWithIdx(site)
+    ring_set = set(ring)
+    info = mol.GetRingInfo()
+    out = []
+    for f in n.GetNeighbors():
+        if f.GetIdx() not in ring_set or info.NumAtomRings(f.GetIdx()) < 2:
+            continue
+        for other in info.AtomRings():
+            if f.GetIdx() not in other or len(other) != 6 or set(other) == ring_set:
+                continue
+            if not all(mol.GetAtomWithIdx(i).GetIsAromatic() for i in other):
+                continue
+            other_set = set(other)
+            for g in f.GetNeighbors():
+                if g.GetIdx() not in other_set or g.GetIdx() in ring_set:
+                    continue
+                if g.GetAtomicNum() != 6:
+                    continue
+                for x in g.GetNeighbors():
+                    if x.GetIdx() in other_set or x.GetAtomicNum() == 1:
+                        continue
+                    out.append(x)
+    return out
+
+
+def _peri(mol: Chem.Mol, ring: list[int], site: int) -> float:
+    """A group in the peri position crowds the N-H of the cation and hinders its solvation
+    (8-methylquinoline and benzo[h]quinoline are weaker bases than quinoline; an 8-amino group
+    also holds the N lone pair in a hydrogen bond). With a group ortho to the N on its other side
+    as well (2,8-dimethylquinoline) the N-H is squeezed between the two. K.PERI and
+    K.PERI_BUTTRESS are our estimates."""
+    groups = _peri_groups(mol, ring, site)
+    if not groups:
+        return 0.0
+    n = mol.GetAtomWithIdx(site)
+    ortho_sub = False
+    for r in n.GetNeighbors():
+        if r.GetIdx() not in ring or mol.GetRingInfo().NumAtomRings(r.GetIdx()) > 1:
+            continue
+        if any(x.GetIdx() not in ring and x.GetAtomicNum() > 1 for x in r.GetNeighbors()):
+            ortho_sub = True
+    return K.PERI + (K.PERI_BUTTRESS if ortho_sub else 0.0)
+
+
+def _donor_cross(mol: Chem.Mol, ring: list[int], site: int, donors: list, rho: float) -> float:
+    """Correction to additivity for pi-donors (amino, alkoxy) conjugated with the site N.
+
+    Cross-conjugation: a donor para to another ring aza N, and not next to one, is conjugated
+    with that N in the free base, and the additive sums credit it in full to the site. It stays
+    conjugated with the other N on protonation, so it adds little to the site's basicity
+    (4,6-diaminopyrimidine lies well below 2,4-diaminopyrimidine, where both donors are ortho to
+    the other N; in melamine every amino group sits between two ring N and they all count). Such
+    a donor loses K.DONOR_CROSS of its ortho or para increment (our estimate, constants.py)."""
+    if not donors:
+        return 0.0
+    aza = [
+        i for i in ring if i != site and mol.GetAtomWithIdx(i).GetAtomicNum() == 7
+        and mol.GetAtomWithIdx(i).GetDegree() == 2 and mol.GetAtomWithIdx(i).GetTotalNumHs() == 0
+        and mol.GetAtomWithIdx(i).GetFormalCharge() == 0
+    ]
+    if not aza:
+        return 0.0
+    correction = 0.0
+    for idx, kind, term in donors:
+        inc = term if kind == "ortho" else -rho * term
+        if inc <= 0:
+            continue
+        pos = _ordered_positions(ring, idx)
+        # para to another aza N and not flanked by one (a donor between two ring N, as in
+        # 2-aminopyrimidine or melamine, stays in conjugation with the site)
+        if any(pos[a] == 3 for a in aza) and not any(pos[a] == 1 for a in aza):
+            correction -= K.DONOR_CROSS * inc
+    return correction
 
 
 def _fused_ring_sigma(mol: Chem.Mol, ring: list[int], site: int) -> float:
@@ -585,10 +699,14 @@ def azine(mol: Chem.Mol, n_idx: int) -> tuple[float, str]:
     ring6 = _ring_of(mol, n_idx, 6)
     if ring6 is not None:
         pka = K.PYRIDINE["pka0"]
+        donors: list = []
         ortho, sigma = _hammett_sum(
-            mol, ring6, n_idx, K.ORTHO_PYRIDINE, default_ortho=-1.0, ring_hetero=0.5, para_minus=False
+            mol, ring6, n_idx, K.ORTHO_PYRIDINE, default_ortho=-1.0, ring_hetero=0.5, para_minus=None,
+            donors=donors,
         )
         sigma += _fused_ring_sigma(mol, ring6, n_idx)
+        pka += _donor_cross(mol, ring6, n_idx, donors, K.PYRIDINE["rho"])
+        pka += _peri(mol, ring6, n_idx)
         return pka + ortho - K.PYRIDINE["rho"] * sigma, f"Hammett equation, pyridine-type N (sum sigma {sigma:+.2f})"
     ring5 = _ring_of(mol, n_idx, 5)
     if ring5 is None:
@@ -602,6 +720,16 @@ def azine(mol: Chem.Mol, n_idx: int) -> tuple[float, str]:
     pka = base
     sigma = 0.0
     ring_set = set(ring5)
+    # ring atoms next to the basic N, unless they also sit next to a pyrrole-type ring N (C2 of
+    # an imidazole: already inside the amidinium of the cation)
+    adjacent = {
+        x.GetIdx() for x in mol.GetAtomWithIdx(n_idx).GetNeighbors()
+        if x.GetIdx() in ring_set and not any(
+            y.GetIdx() in ring_set and y.GetIdx() != n_idx and y.GetAtomicNum() == 7
+            and (y.GetDegree() == 3 or y.GetTotalNumHs() > 0)
+            for y in x.GetNeighbors()
+        )
+    }
     for idx in ring5:
         if idx == n_idx:
             continue
@@ -615,7 +743,11 @@ def azine(mol: Chem.Mol, n_idx: int) -> tuple[float, str]:
             key = classify_substituent(mol, atom, x, ring_set)
             if key == "fused":
                 continue
-            sigma += K.HAMMETT.get(key, (0.0, 0.0, 0.0))[0]
+            sm, sp, _spm = K.HAMMETT.get(key, (0.0, 0.0, 0.0))
+            if idx in adjacent:
+                sigma += sm + K.AZOLE_ADJACENT_RESONANCE * (sp - sm)
+            else:
+                sigma += sm
     # benzo (or other aromatic) fusion on the ring's carbons
     fused_atoms = [i for i in ring5 if mol.GetRingInfo().NumAtomRings(i) > 1 and mol.GetAtomWithIdx(i).GetAtomicNum() == 6]
     if len(fused_atoms) >= 2:
@@ -638,7 +770,7 @@ def _azole_n_substituent(mol, ring_n: Chem.Atom, x: Chem.Atom) -> float:
     if x.GetAtomicNum() == 6 and any(b.GetBondType() == Chem.BondType.DOUBLE for b in x.GetBonds()):
         return _AZOLE_N_SUBST["vinyl"]
     if x.GetAtomicNum() == 6:
-        return _AZOLE_N_SUBST["alkyl"]
+        return _AZOLE_N_SUBST["alkyl"] - K.AZOLE_N_RHO_STAR * group_sigma_star(mol, x, ring_n)
     return 0.0
 
 
@@ -669,9 +801,15 @@ def amidine(mol: Chem.Mol, n_idx: int) -> tuple[float, str]:
             elif x.GetAtomicNum() == 6 and _carbonyl_kind(mol, x):
                 pka -= 5.0
             elif x.GetAtomicNum() == 6:
-                pka += 0.05 - 1.0 * group_sigma_star(mol, x, m)
+                pka += 0.05 - K.AMIDINE_N_RHO_STAR * group_sigma_star(mol, x, m)
             elif x.GetAtomicNum() in (7, 8):
                 pka -= 4.0
+    info = mol.GetRingInfo()
+    if not guanidine and any(
+        len(r) == 5 and carbon.GetIdx() in r and sum(1 for m in nitrogens if m.GetIdx() in r) == 2
+        for r in info.AtomRings()
+    ):
+        pka += K.AMIDINE_RING5
     return pka, "guanidine class value with substituent terms" if guanidine else "amidine class value with substituent terms"
 
 
@@ -737,10 +875,14 @@ def imine(mol: Chem.Mol, n_idx: int) -> tuple[float, str]:
         if ring:
             for d, key in _ring_substituents(mol, ring, c.GetIdx()):
                 if key in ("aza", "ring_nR", "oxo") or key.startswith("ring_"):
-                    sigma += 0.65 if key == "aza" else 0.0
+                    sigma += K.IMINE_AZA if key == "aza" else 0.0
                     continue
                 sigma += _sigma_for(key, 2 if d == 1 else d, False)
-        return 13.0 - 4.5 * sigma, "class value, cyclic amidine (imine on an N-heterocycle)"
+        pka = 13.0 - 4.5 * sigma
+        for x in n.GetNeighbors():
+            if x.GetIdx() != c.GetIdx() and x.GetAtomicNum() == 6 and not x.GetIsAromatic():
+                pka += 0.05 - K.AMIDINE_N_RHO_STAR * group_sigma_star(mol, x, n)
+        return pka, "class value, cyclic amidine (imine on an N-heterocycle)"
     if any(x.GetIsAromatic() for x in n.GetNeighbors()):
         return 2.8, "class value, N-aryl imine"
     carbon = [b.GetOtherAtom(n) for b in n.GetBonds() if b.GetBondType() == Chem.BondType.DOUBLE][0]
