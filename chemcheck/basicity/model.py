@@ -627,6 +627,19 @@ def _twist(mol: Chem.Mol, n: Chem.Atom, ipso: Chem.Atom, ring: list[int]) -> flo
     return per * len(ortho_alkyl)
 
 
+def _aryl_terms(mol: Chem.Mol, ipso: Chem.Atom, ring: list[int]) -> tuple[float, float]:
+    """(ortho increments, sum sigma) of an aryl or heteroaryl ring seen from the N on ``ipso``,
+    as for anilines: sigma_p- for para pi-acceptors, ring aza atoms as substituents, and the
+    substituents of a fused ring (naphthylamines) at reduced strength."""
+    ortho, sigma = _hammett_sum(
+        mol, ring, ipso.GetIdx(), K.ORTHO_ANILINE, default_ortho=-0.5, ring_hetero=0.3,
+        para_minus=True, five_ring=len(ring) == 5,
+    )
+    if len(ring) == 6:
+        sigma += _fused_ring_sigma(mol, ring, ipso.GetIdx())
+    return ortho, sigma
+
+
 def aniline(mol: Chem.Mol, n_idx: int) -> tuple[float, str]:
     n = mol.GetAtomWithIdx(n_idx)
     aryls = [x for x in n.GetNeighbors() if x.GetIsAromatic()]
@@ -645,15 +658,12 @@ def aniline(mol: Chem.Mol, n_idx: int) -> tuple[float, str]:
             pka += 0.35 - 3.0 * group_sigma_star(mol, x, n)
     if ring is None:
         return pka, "Hammett equation, aniline"
-    ortho, sigma = _hammett_sum(
-        mol, ring, ipso.GetIdx(), K.ORTHO_ANILINE, default_ortho=-0.5, ring_hetero=0.3,
-        para_minus=True, five_ring=len(ring) == 5,
-    )
+    ortho, sigma = _aryl_terms(mol, ipso, ring)
     if len(ring) == 6:
-        # substituents on a ring fused to the aniline ring (naphthylamines), as for quinolines
-        sigma += _fused_ring_sigma(mol, ring, ipso.GetIdx())
         ortho += _twist(mol, n, ipso, ring)
-    return pka + ortho - K.ANILINE["rho"] * sigma, f"Hammett equation, aniline (sum sigma {sigma:+.2f})"
+    n_alkyl = sum(1 for x in n.GetNeighbors() if x.GetIdx() != ipso.GetIdx() and x.GetAtomicNum() == 6 and not x.GetIsAromatic())
+    rho = K.ANILINE["rho"] if n_alkyl == 0 else K.ANILINE_N_ALKYL_RHO
+    return pka + ortho - rho * sigma, f"Hammett equation, aniline (sum sigma {sigma:+.2f})"
 
 
 # 5-ring azoles: the parent pKa by the ring's signature seen from the basic N (c carbon,
@@ -798,6 +808,11 @@ def amidine(mol: Chem.Mol, n_idx: int) -> tuple[float, str]:
                 continue
             if x.GetIsAromatic():
                 pka -= 2.8 if guanidine else 2.5  # phenylguanidine 10.8 [P65]
+                ring = _ring_of(mol, x.GetIdx(), 6) or _ring_of(mol, x.GetIdx())
+                if ring is not None:
+                    # substituents and aza atoms of the N-aryl ring, through the aniline terms
+                    o, sg = _aryl_terms(mol, x, ring)
+                    pka += (o - K.ANILINE["rho"] * sg) * K.AMIDINE_ARYL_SHARE
             elif x.GetAtomicNum() == 6 and _carbonyl_kind(mol, x):
                 pka -= 5.0
             elif x.GetAtomicNum() == 6:
