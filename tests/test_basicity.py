@@ -124,14 +124,14 @@ def _accuracy(path, cls=None):
 @pytest.mark.parametrize(
     "classes,limit",
     [
-        (None, 0.70),
+        (None, 0.65),
         (("aniline_primary",), 0.30),
-        (("azine_polyaza",), 1.05),
-        (("other_heteroaromatic",), 0.78),
-        (("aliphatic_primary", "aliphatic_secondary", "aliphatic_tertiary"), 0.62),
-        (("pyridine",), 0.52),
+        (("azine_polyaza",), 0.95),
+        (("other_heteroaromatic",), 0.76),
+        (("aliphatic_primary", "aliphatic_secondary", "aliphatic_tertiary"), 0.58),
+        (("pyridine",), 0.50),
         (("imidazole",), 0.60),
-        (("amidine_guanidine",), 0.65),
+        (("amidine_guanidine",), 0.52),
     ],
 )
 def test_accuracy_on_the_iupac_dataset(pka_dataset_dir, classes, limit):
@@ -142,7 +142,7 @@ def test_accuracy_on_the_iupac_dataset(pka_dataset_dir, classes, limit):
 
 def test_multisite_accuracy(pka_dataset_dir):
     mae, n = _accuracy(pka_dataset_dir / "amine_pka_multisite_dev.csv")
-    assert n > 200 and mae <= 0.76
+    assert n > 200 and mae <= 0.68
 
 
 @pytest.mark.parametrize(
@@ -328,3 +328,39 @@ def test_ring_amidines():
     for smiles, value in (("CC1=NCCN1", 11.0), ("c1ccc(C2=NCCN2)cc1", 9.9)):
         _, macro = _first(smiles)
         assert abs(macro - value) <= 0.6, (smiles, macro)
+
+
+def test_covalent_hydration_sites_and_hydrate():
+    from chemcheck.basicity import hydration
+
+    def sites(smiles):
+        return hydration.hydration_sites(Chem.MolFromSmiles(smiles))
+
+    # C4 of quinazoline and of pteridine take water in the cation (Albert, Armarego & Spinner
+    # 1961); quinoline, 4-methylquinazoline, a tetrahydroquinazoline and 2-chloroquinazoline do not
+    assert len(sites("c1ccc2ncncc2c1")) == 1
+    assert len(sites("c1cnc2ncncc2n1")) == 1
+    for smiles in ("c1ccc2ncccc2c1", "Cc1ncnc2ccccc12", "c1ncc2c(n1)CCCC2", "Clc1ncc2ccccc2n1"):
+        assert sites(smiles) == [], smiles
+    mol = Chem.MolFromSmiles("c1ccc2ncncc2c1")
+    hydrated = hydration.hydrate(mol, sites("c1ccc2ncncc2c1")[0])
+    assert Chem.MolToSmiles(hydrated) == Chem.MolToSmiles(Chem.MolFromSmiles("OC1NC=Nc2ccccc21"))
+
+
+def test_covalent_hydration_raises_the_measured_basicity():
+    # pteridine 4.05 (Albert, from memory) although its aromatic cation is a far weaker base;
+    # 4-methylquinazoline, which cannot hydrate at C4, 2.52 (from memory) below quinazoline 3.51
+    site, pteridine = _first("c1cnc2ncncc2n1")
+    assert "hydrated" in site.method
+    assert pteridine >= 2.0
+    site, methyl = _first("Cc1ncnc2ccccc12")
+    assert "hydrated" not in site.method
+    assert methyl < 3.51
+    assert abs(methyl - 2.52) <= 0.6
+
+
+def test_heteroatoms_on_the_amidine_carbon():
+    # O-methylisourea 9.7 and S-methylisothiourea 9.8 (from memory), below acetamidine 12.4
+    for smiles, value in (("COC(=N)N", 9.7), ("CSC(=N)N", 9.8)):
+        _, macro = _first(smiles)
+        assert abs(macro - value) <= 1.0, (smiles, macro)

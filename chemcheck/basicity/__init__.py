@@ -32,15 +32,16 @@ from .._memo import Memo
 from ..errors import ParseError
 from ..molecule import read_smiles
 from ..perceive import canonical_key, nitrogen_sites
-from . import model
-from .reference import REFERENCE
+from . import constants as K
+from . import hydration, model
+from .reference import ANHYDROUS, REFERENCE
 
 __all__ = ["Site", "basic_sites", "first_protonation", "most_basic", "METHOD_UNCERTAINTY"]
 
 # Estimated uncertainty (pKa units) of each method, from the accuracy measured against the
 # IUPAC digitized dataset (docs/basicity.md); the reference values carry their own.
 METHOD_UNCERTAINTY = {
-    "aliphatic": 0.5, "aryl_amine": 0.4, "azine": 0.6, "azole": 0.9, "amidine": 1.0,
+    "aliphatic": 0.5, "aryl_amine": 0.4, "azine": 0.6, "azole": 0.8, "amidine": 0.7,
     "hydrazine": 0.8, "hydroxylamine": 0.8, "imine": 1.5, "enamine": 2.0, "amide_anion": 3.0,
 }
 _ANCHOR_EXTRA = 0.1
@@ -201,6 +202,8 @@ def _site_value(mol: Chem.Mol, idx: int, kind: str) -> tuple[float, str, str, fl
     micro_ref = ref.pka1 - math.log10(ref.n_equiv)
     if exact:
         return micro_ref, "reference value", f"{ref.name}: {ref.source}", ref.uncertainty
+    if ref.name in ANHYDROUS:  # anchor on the aromatic cation; hydration is added later
+        micro_ref = ANHYDROUS[ref.name] - math.log10(ref.n_equiv)
     ref_model, _ = _model(ref.mol, ref.site, fam)
     shifted = micro_ref + (value - ref_model)
     return (
@@ -284,7 +287,7 @@ def _shared_amidine(mol: Chem.Mol, site) -> bool:
     )
 
 
-def _compute(mol: Chem.Mol, max_sites: int) -> list[Site]:
+def _compute(mol: Chem.Mol, max_sites: int, *, hydrate: bool = True) -> list[Site]:
     perceived = nitrogen_sites(mol)
     sites: dict[int, Site] = {}
     for s in perceived:
@@ -304,6 +307,9 @@ def _compute(mol: Chem.Mol, max_sites: int) -> list[Site]:
             continue
         v, label, src, unc = _site_value(mol, s.atom_index, kind)
         sites[s.atom_index] = Site(s.atom_index, kind, round(v, 2), label, src, unc)
+    if hydrate:
+        for hs in hydration.hydration_sites(mol):
+            _add_hydration(mol, sites, hs, max_sites)
     # protonation order among the neutral basic sites, each next one with the earlier protonated
     basic = sorted(
         (s for s in sites.values() if s.pka is not None and s.kind != "ammonium" and s.kind != "amide_anion"),
@@ -315,6 +321,43 @@ def _compute(mol: Chem.Mol, max_sites: int) -> list[Site]:
     if len(basic) > 1:
         _stepwise(mol, sites, basic)
     return [sites[k] for k in sorted(sites)]
+
+
+def _add_hydration(mol: Chem.Mol, sites: dict[int, Site], hs: "hydration.HydrationSite", max_sites: int) -> None:
+    """Fold the covalently hydrated cation into the value of the ring N it protonates
+    (``hydration.py``): pKa = log10((10**pKa + Kn 10**pKa_hydrate) / (1 + Kn))."""
+    cands = [sites.get(i) for i in (hs.n_added, hs.amidine_n)]
+    cands = [c for c in cands if c is not None and c.pka is not None]
+    if not cands:
+        return
+    target = max(cands, key=lambda c: c.pka)
+    if target.method == "reference value":  # a measured value already includes the hydration
+        return
+    hydrated = hydration.hydrate(mol, hs)
+    if hydrated is None:
+        return
+    values = [
+        s.pka for s in _compute(hydrated, max_sites, hydrate=False)
+        if s.atom_index in (hs.n_added, hs.amidine_n, hs.amidine_c) and s.pka is not None
+    ]
+    if not values:
+        return
+    hyd = max(values)
+    # the more electron-poor the ring (the lower its aromatic cation's pKa), the more the
+    # neutral base hydrates: a linear free-energy relation anchored on quinazoline
+    log_kn = K.HYDRATION_LOG_KN - K.HYDRATION_SLOPE * (target.pka - ANHYDROUS["quinazoline"])
+    log_kn = min(log_kn, 0.0)
+    kn = 10 ** log_kn
+    value = math.log10((10 ** target.pka + kn * 10 ** hyd) / (1 + kn))
+    if value - target.pka < 0.05:
+        return
+    sites[target.atom_index] = replace(
+        target,
+        pka=round(value, 2),
+        method=f"{target.method}; with the covalently hydrated cation (hydrate {hyd:.2f}, log Kn {log_kn:.1f})",
+        source=f"{target.source}; covalent hydration after Albert, Armarego & Spinner 1961",
+        uncertainty=(target.uncertainty or 0.5) + 0.3,
+    )
 
 
 def _stepwise(mol: Chem.Mol, sites: dict[int, Site], basic: list[Site]) -> None:

@@ -179,3 +179,12 @@ ANILINE_N_ALKYL_RHO = 3.46
 # aniline terms at this share (the cation's charge is spread over two or three N; cf. the
 # 0.6 share of AMIDINE_N_RHO_STAR). Our estimate; phenylguanidine itself is the anchor.
 AMIDINE_ARYL_SHARE = 0.5
+# log10 of the hydration constant of the neutral base for the covalent hydration of fused
+# pyrimidines (hydration.py): from quinazoline, equilibrium pKa 3.51, anhydrous 1.95, hydrated
+# cation 7.77 (Albert, Armarego & Spinner 1961, from memory):
+# log10(10**3.51 - 10**1.95) - 7.77 = -4.27.
+HYDRATION_LOG_KN = -4.27
+# The more electron-poor the ring, the more its neutral base hydrates (pteridine hydrates far
+# more than quinazoline): log Kn rises by this much per unit by which the aromatic cation's pKa
+# lies below anhydrous quinazoline's. Our estimate of a linear free-energy relation.
+HYDRATION_SLOPE = 0.5

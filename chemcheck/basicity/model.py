@@ -716,7 +716,10 @@ def azine(mol: Chem.Mol, n_idx: int) -> tuple[float, str]:
         )
         sigma += _fused_ring_sigma(mol, ring6, n_idx)
         pka += _donor_cross(mol, ring6, n_idx, donors, K.PYRIDINE["rho"])
-        pka += _peri(mol, ring6, n_idx)
+        if not any(kind == "ortho" and term > 0 or kind == "sigma" and term < -0.3 for _i, kind, term in donors):
+            # an amino group ortho or para to the N carries much of the cation's charge, and
+            # the crowded N-H matters less (4-aminoquinaldines, 2,4-diaminoquinazolines)
+            pka += _peri(mol, ring6, n_idx)
         return pka + ortho - K.PYRIDINE["rho"] * sigma, f"Hammett equation, pyridine-type N (sum sigma {sigma:+.2f})"
     ring5 = _ring_of(mol, n_idx, 5)
     if ring5 is None:
@@ -800,6 +803,12 @@ def amidine(mol: Chem.Mol, n_idx: int) -> tuple[float, str]:
     pka = 13.6 if guanidine else 12.4
     for x in carbon.GetNeighbors():
         if x.GetAtomicNum() == 7:
+            continue
+        if x.GetAtomicNum() != 6:
+            # a heteroatom on the amidine carbon (chloroformamidine, isourea, isothiourea): its
+            # sigma* is that of CH2Z undone by one attenuation step
+            key = _hetero_key(mol, x, carbon)
+            pka -= 1.4 * K.SIGMA_STAR_Z.get(key, 0.0) / K.ATTENUATION if key else 0.0
             continue
         pka -= 1.4 * group_sigma_star(mol, x, carbon)  # benzamidine 11.6 against acetamidine [P65]
     for m in nitrogens:

@@ -163,3 +163,11 @@ REFERENCE: tuple[tuple[str, str, float, float | None, str, float], ...] = (
     ("1,5-diazabicyclo[4.3.0]non-5-ene", "C1C[N:1]=C2CCCN2C1", 12.5, None, "literature range 11.5-13.5 (aqueous extrapolations)", 1.0),
     ("nicotine", "C[N:1]1CCC[C@H]1c1ccc[n:2]c1", 8.0, 3.1, P65, 0.1),
 )
+
+
+# Parents whose measured pKa is an equilibrium value over a covalently hydrated cation: the
+# value of the anhydrous (aromatic) cation, used when the parent anchors a related compound
+# (the hydration is then added by ``hydration.py``). Quinazoline: anhydrous 1.95, hydrated
+# cation 7.77, equilibrium 3.51 (A. Albert, W. L. F. Armarego, E. Spinner, J. Chem. Soc. 1961,
+# 2689; values from memory).
+ANHYDROUS: dict[str, float] = {"quinazoline": 1.95}
