@@ -364,3 +364,12 @@ def test_heteroatoms_on_the_amidine_carbon():
     for smiles, value in (("COC(=N)N", 9.7), ("CSC(=N)N", 9.8)):
         _, macro = _first(smiles)
         assert abs(macro - value) <= 1.0, (smiles, macro)
+
+
+def test_a_counter_ion_or_second_component_keeps_the_reference_value():
+    # pyridine 5.25 (CRC) in a mixture with acetic acid, quinazoline 3.51 (Perrin) as its salt
+    pyridine = [s for s in basic_sites("c1ccncc1.CC(=O)O") if s.pka is not None]
+    assert [s.method for s in pyridine] == ["reference value"]
+    assert pyridine[0].pka == 5.25
+    salt = max((s for s in basic_sites("c1ccc2nc[nH+]cc2c1.[Cl-]") if s.pka is not None), key=lambda s: s.pka)
+    assert salt.kind == "ammonium" and salt.pka == 3.51

@@ -162,7 +162,7 @@ def _smallest_ring(mol: Chem.Mol, bond) -> int:
 
 def _anchor(mol: Chem.Mol, idx: int, fam: str) -> tuple[_Ref, bool] | None:
     """The best reference for this site: (ref, exact) where exact means the same compound."""
-    key = Chem.MolToSmiles(mol) if mol.GetNumAtoms() < 200 else ""
+    key = _fragment_key(mol, idx) if mol.GetNumAtoms() < 200 else ""
     best: _Ref | None = None
     best_rank = None
     exact = False
@@ -182,6 +182,16 @@ def _anchor(mol: Chem.Mol, idx: int, fam: str) -> tuple[_Ref, bool] | None:
                 best, best_rank = ref, rank
             break
     return (best, exact) if best is not None else None
+
+
+def _fragment_key(mol: Chem.Mol, idx: int) -> str:
+    """Canonical SMILES of the fragment that holds atom ``idx`` (a salt's counter-ion or a
+    second molecule in the same text does not hide an exact reference match)."""
+    frags = Chem.GetMolFrags(mol)
+    if len(frags) == 1:
+        return Chem.MolToSmiles(mol)
+    atoms = next(f for f in frags if idx in f)
+    return Chem.MolFragmentToSmiles(mol, atomsToUse=list(atoms))
 
 
 def _site_ring(mol: Chem.Mol, idx: int) -> int:
@@ -297,7 +307,16 @@ def _compute(mol: Chem.Mol, max_sites: int, *, hydrate: bool = True) -> list[Sit
             free_kind = {x.atom_index: x.kind for x in nitrogen_sites(free)}.get(s.atom_index)
             if free_kind in _FAMILY:
                 v, label, src, unc = _site_value(free, s.atom_index, free_kind)
-                sites[s.atom_index] = Site(s.atom_index, kind, round(v, 2), f"salt: N-H of the {free_kind.replace('_', ' ')}; {label}", src, unc)
+                one = {s.atom_index: Site(s.atom_index, free_kind, round(v, 2), label, src, unc)}
+                if hydrate:
+                    for hs in hydration.hydration_sites(free):
+                        if s.atom_index in (hs.n_added, hs.amidine_n):
+                            _add_hydration(free, one, hs, max_sites)
+                base = one[s.atom_index]
+                sites[s.atom_index] = Site(
+                    s.atom_index, kind, base.pka, f"salt: N-H of the {free_kind.replace('_', ' ')}; {base.method}",
+                    base.source, base.uncertainty,
+                )
                 continue
         if kind not in _FAMILY or (s.basic is False and kind not in _FAMILY):
             sites[s.atom_index] = Site(s.atom_index, kind, None, _NOT_BASIC, "class (perception)", None)

@@ -35,7 +35,7 @@ class HydrationSite:
 def _plain_ring_n(atom: Chem.Atom) -> bool:
     return (
         atom.GetAtomicNum() == 7 and atom.GetIsAromatic() and atom.GetDegree() == 2
-        and atom.GetTotalNumHs() == 0 and atom.GetFormalCharge() == 0
+        and atom.GetTotalNumHs(includeNeighbors=True) == 0 and atom.GetFormalCharge() == 0
     )
 
 
@@ -66,7 +66,7 @@ def hydration_sites(mol: Chem.Mol) -> list[HydrationSite]:
     info = mol.GetRingInfo()
     out = []
     for c in mol.GetAtoms():
-        if not (c.GetAtomicNum() == 6 and c.GetIsAromatic() and c.GetTotalNumHs() == 1
+        if not (c.GetAtomicNum() == 6 and c.GetIsAromatic() and c.GetTotalNumHs(includeNeighbors=True) == 1
                 and info.NumAtomRings(c.GetIdx()) == 1):
             continue
         ring = next(r for r in info.AtomRings() if c.GetIdx() in r)
