@@ -188,3 +188,7 @@ HYDRATION_LOG_KN = -4.27
 # more than quinazoline): log Kn rises by this much per unit by which the aromatic cation's pKa
 # lies below anhydrous quinazoline's. Our estimate of a linear free-energy relation.
 HYDRATION_SLOPE = 0.5
+# Secondary and tertiary amines: per carbon branch beyond the first on each alpha carbon
+# (hindrance to the solvation of the ammonium ion). Our estimate; 2,2,6,6-tetramethylpiperidine
+# 11.07 against piperidine 11.12 (from memory), where the Taft sum alone gives about 12.4.
+CROWDED_AMMONIUM = 0.2

@@ -170,7 +170,17 @@ def aliphatic(mol: Chem.Mol, n_idx: int) -> tuple[float, str]:
     cls = {2: "primary", 1: "secondary", 0: "tertiary"}.get(n.GetTotalNumHs(), "tertiary")
     a, rho = K.TAFT_AMINE[cls]
     sigma = sum(group_sigma_star(mol, x, n) for x in heavy)
-    return a - rho * sigma, f"Taft equation, {cls} amine (sum sigma* {sigma:+.2f})"
+    # steric hindrance to solvation: the fewer N-H a crowded ammonium ion has, the less water
+    # can stabilise it, which the sigma* of branched alkyl groups does not see
+    # (2,2,6,6-tetramethylpiperidine is no stronger a base than piperidine)
+    crowd = 0.0
+    if cls != "primary":
+        for x in heavy:
+            if x.GetAtomicNum() == 6 and not x.GetIsAromatic():
+                branches = sum(1 for y in x.GetNeighbors() if y.GetIdx() != n_idx and y.GetAtomicNum() == 6)
+                crowd += max(0, branches - 1)
+    pka = a - rho * sigma - K.CROWDED_AMMONIUM * crowd
+    return pka, f"Taft equation, {cls} amine (sum sigma* {sigma:+.2f})"
 
 
 # --------------------------------------------------------------------------- aromatic rings
