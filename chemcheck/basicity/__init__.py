@@ -114,6 +114,7 @@ class _Ref:
     smiles: str
     n_equiv: int
     heavy: int
+    ring: int  # size of the smallest ring through the site (0: none)
 
 
 def _equivalents(mol: Chem.Mol, idx: int) -> int:
@@ -138,7 +139,7 @@ def _references() -> tuple[_Ref, ...]:
             fam = _family(mol, site, kinds[site])
             out.append(
                 _Ref(name, mol, site, site2, pka1, pka2, source, unc, fam, Chem.MolToSmiles(mol),
-                     _equivalents(mol, site), mol.GetNumHeavyAtoms())
+                     _equivalents(mol, site), mol.GetNumHeavyAtoms(), _site_ring(mol, site))
             )
     return tuple(out)
 
@@ -177,7 +178,7 @@ def _anchor(mol: Chem.Mol, idx: int, fam: str) -> tuple[_Ref, bool] | None:
                 return ref, True
             # a reference whose N sits in a ring of the same size comes first (an N-alkyl
             # aziridine anchors on aziridine, not on ethylamine), then the larger reference
-            rank = (_site_ring(ref.mol, ref.site) == ring_here, ref.heavy)
+            rank = (ref.ring == ring_here, ref.heavy)
             if best_rank is None or rank > best_rank:
                 best, best_rank = ref, rank
             break

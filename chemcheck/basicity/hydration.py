@@ -21,6 +21,7 @@ from dataclasses import dataclass
 from rdkit import Chem
 
 from .. import _rdlog
+from .model import is_aza
 
 
 @dataclass(frozen=True)
@@ -30,13 +31,6 @@ class HydrationSite:
     amidine_c: int
     amidine_n: int  # the =N of the hydrated cation's amidine, where its proton goes
     ring: tuple[int, ...]
-
-
-def _plain_ring_n(atom: Chem.Atom) -> bool:
-    return (
-        atom.GetAtomicNum() == 7 and atom.GetIsAromatic() and atom.GetDegree() == 2
-        and atom.GetTotalNumHs(includeNeighbors=True) == 0 and atom.GetFormalCharge() == 0
-    )
 
 
 def _in_other_aromatic_ring(mol: Chem.Mol, atom: Chem.Atom, ring: set[int]) -> bool:
@@ -80,11 +74,11 @@ def hydration_sites(mol: Chem.Mol) -> list[HydrationSite]:
         nbrs = in_ring(c)
         if not any(_in_other_aromatic_ring(mol, x, ring_set) for x in nbrs):
             continue
-        for na in (x for x in nbrs if _plain_ring_n(x)):
+        for na in (x for x in nbrs if is_aza(x)):
             cb = next((x for x in in_ring(na) if x.GetIdx() != c.GetIdx()), None)
             if cb is None or cb.GetAtomicNum() != 6 or info.NumAtomRings(cb.GetIdx()) > 1:
                 continue
-            nb = next((x for x in in_ring(cb) if x.GetIdx() != na.GetIdx() and _plain_ring_n(x)), None)
+            nb = next((x for x in in_ring(cb) if x.GetIdx() != na.GetIdx() and is_aza(x)), None)
             if nb is not None and _plain_amidine_carbon(cb, ring_set):
                 out.append(HydrationSite(c.GetIdx(), na.GetIdx(), cb.GetIdx(), nb.GetIdx(), tuple(ring)))
     return out

@@ -15,6 +15,14 @@ from rdkit import Chem
 from . import constants as K
 
 _PI_DONORS = {"NH2", "NHR", "NR2", "OMe", "O-"}
+
+
+def is_aza(atom: Chem.Atom) -> bool:
+    """A neutral pyridine-type ring N: two ring bonds, no H, its lone pair in the ring plane."""
+    return (
+        atom.GetAtomicNum() == 7 and atom.GetIsAromatic() and atom.GetDegree() == 2
+        and atom.GetTotalNumHs(includeNeighbors=True) == 0 and atom.GetFormalCharge() == 0
+    )
 _PI_ACCEPTORS = {"NO2", "CN", "CHO", "COR", "COOR", "COOH", "CONH2", "SO2R", "SO2N", "CF3", "ethynyl", "N=N", "SH"}
 
 
@@ -339,10 +347,7 @@ def _ring_substituents_at(mol: Chem.Mol, ring: list[int], centre: int):
     """As ``_ring_substituents``, with the index of the ring atom that carries each one."""
     pos = _ordered_positions(ring, centre)
     ring_set = set(ring)
-    azaring = any(
-        mol.GetAtomWithIdx(i).GetAtomicNum() == 7 and mol.GetAtomWithIdx(i).GetDegree() == 2
-        and mol.GetAtomWithIdx(i).GetTotalNumHs() == 0 for i in ring
-    )
+    azaring = any(is_aza(mol.GetAtomWithIdx(i)) for i in ring)
     for idx in ring:
         if idx == centre:
             continue
@@ -532,11 +537,7 @@ def _donor_cross(mol: Chem.Mol, ring: list[int], site: int, donors: list, rho: f
     a donor loses K.DONOR_CROSS of its ortho or para increment (our estimate, constants.py)."""
     if not donors:
         return 0.0
-    aza = [
-        i for i in ring if i != site and mol.GetAtomWithIdx(i).GetAtomicNum() == 7
-        and mol.GetAtomWithIdx(i).GetDegree() == 2 and mol.GetAtomWithIdx(i).GetTotalNumHs() == 0
-        and mol.GetAtomWithIdx(i).GetFormalCharge() == 0
-    ]
+    aza = [i for i in ring if i != site and is_aza(mol.GetAtomWithIdx(i))]
     if not aza:
         return 0.0
     correction = 0.0
@@ -612,7 +613,7 @@ def _fused_aza_sigma(mol: Chem.Mol, ring: list[int], site: int) -> float:
             if idx in ring_set:
                 continue
             a = mol.GetAtomWithIdx(idx)
-            if a.GetAtomicNum() != 7 or a.GetDegree() == 3 or a.GetTotalNumHs() > 0 or a.GetFormalCharge() != 0:
+            if not is_aza(a):
                 continue
             d = len(Chem.GetShortestPath(mol, site, idx)) - 1
             total += K.FUSED_RING_FACTOR * K.AZA_SIGMA["para" if d % 2 == 1 else "meta"]
@@ -726,9 +727,12 @@ def azine(mol: Chem.Mol, n_idx: int) -> tuple[float, str]:
         )
         sigma += _fused_ring_sigma(mol, ring6, n_idx)
         pka += _donor_cross(mol, ring6, n_idx, donors, K.PYRIDINE["rho"])
-        if not any(kind == "ortho" and term > 0 or kind == "sigma" and term < -0.3 for _i, kind, term in donors):
-            # an amino group ortho or para to the N carries much of the cation's charge, and
-            # the crowded N-H matters less (4-aminoquinaldines, 2,4-diaminoquinazolines)
+        # an amino group ortho or para to the N carries much of the cation's charge, and the
+        # crowded N-H matters less (4-aminoquinaldines, 2,4-diaminoquinazolines)
+        strong_donor = any(
+            (kind == "ortho" and term > 0) or (kind == "sigma" and term < -0.3) for _i, kind, term in donors
+        )
+        if not strong_donor:
             pka += _peri(mol, ring6, n_idx)
         return pka + ortho - K.PYRIDINE["rho"] * sigma, f"Hammett equation, pyridine-type N (sum sigma {sigma:+.2f})"
     ring5 = _ring_of(mol, n_idx, 5)
