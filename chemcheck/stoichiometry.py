@@ -5,8 +5,10 @@ From the amounts as weighed and measured. Conventions (common practice):
 * a component is a formula unit: a salt's molar mass includes every fragment, its moles are
   of the salt;
 * the limiting reagent is the reactant with the fewest moles per stoichiometric coefficient
-  (coefficients from the balanced equation when it balances, else 1), unless a component is
-  stated as 1.0 equiv: that one is the reference;
+  (coefficients from the balanced equation when it balances, else 1), and the reference for
+  equivalents, unless a component is stated as 1.0 equiv with its moles known (its amount, or
+  another component's amount and stated equivalents): that one is the reference. A bare
+  "1.0 equiv" with nothing to fix its moles is as much as the limiting reactant;
 * equivalents are moles relative to the reference;
 * concentration is the limiting reagent's moles over the total liquid volume;
 * theoretical yield from the limiting reagent and the coefficients; percentage yield from an
@@ -235,15 +237,21 @@ def compute(reaction: Reaction, amounts: dict[str, str], coefficients: dict[int,
     ]
     reactants_with = [r for r in rows if r.component.role == "reactant" and r.mmol is not None]
     limiting = min(reactants_with, key=lambda r: r.mmol / coeff[r.component.index], default=None)
+    # a component stated only as "1.0 equiv" is the reference when another component's amount
+    # and stated equivalents fix its moles; otherwise "1.0 equiv" means as much as the limiting
+    # reactant, like every other bare equivalent
+    scale = next(
+        (r.mmol / r.amount.stated_equiv for r in rows
+         if r.mmol is not None and r.amount is not None and r.amount.stated_equiv),
+        None,
+    )
+    stated_one = [r for r in stated_one if r.mmol is not None or scale is not None]
     reference = stated_one[0] if stated_one else limiting
     ref_mmol = reference.mmol if reference is not None else None
     if reference is not None and ref_mmol is None:
         # the reference is stated only in equivalents: scale from another component that has
         # both an amount and stated equivalents
-        for r in rows:
-            if r.mmol is not None and r.amount is not None and r.amount.stated_equiv:
-                ref_mmol = r.mmol / r.amount.stated_equiv
-                break
+        ref_mmol = scale
         if ref_mmol is not None:
             reference.mmol = ref_mmol
             reference.mass_g = ref_mmol * reference.component.mw / 1000

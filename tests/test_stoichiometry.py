@@ -99,6 +99,22 @@ def test_equivalents_relative_to_the_stated_reference():
     assert r.stoichiometry.reference.component.text == "CCCCN"
 
 
+def test_a_bare_one_equivalent_of_base_is_relative_to_the_limiting_reactant():
+    # common practice: "1.0 equiv Et3N" next to a weighed amine means as many moles as the
+    # amine. Benzylamine hydrochloride C7H10ClN = 107.156 + 36.458 = 143.614 g/mol:
+    # 1.44 g / 143.614 = 10.03 mmol, so 1.0 equiv Et3N = 10.03 mmol and 1.1 equiv AcCl = 11.03
+    rep = chemcheck.check(
+        "Cl.NCc1ccccc1.CC(=O)Cl>CCN(CC)CC.ClCCl>CC(=O)NCc1ccccc1",
+        amounts={"Cl.NCc1ccccc1": "1.44 g", "CC(=O)Cl": "1.1 equiv", "CCN(CC)CC": "1.0 equiv"},
+    )
+    assert row(rep, "CCN(CC)CC").mmol == pytest.approx(10.03, rel=REL)
+    assert row(rep, "CC(=O)Cl").mmol == pytest.approx(11.03, rel=REL)
+    assert rep.stoichiometry.limiting.component.text == "Cl.NCc1ccccc1"
+    # one equivalent of base frees the salt but leaves none for the HCl the acylation releases
+    finding = next(f for f in rep.findings if f.rule == "amine-salt-not-freed")
+    assert "1 equiv present" in finding.message
+
+
 def test_amount_mismatch_names_the_salt():
     # the salt weighed as 1.07 g is 1.07/143.614 = 7.4505 mmol = 0.745 equiv, not 1.0;
     # with the free base's molar mass (107.156) the same mass would be 9.9855 mmol = 0.9986 equiv
