@@ -213,13 +213,15 @@ def _site_value(mol: Chem.Mol, idx: int, kind: str) -> tuple[float, str, str, fl
     micro_ref = ref.pka1 - math.log10(ref.n_equiv)
     if exact:
         return micro_ref, "reference value", f"{ref.name}: {ref.source}", ref.uncertainty
+    anchor_text = f"{ref.name} ({ref.pka1:.2f})"
     if ref.name in ANHYDROUS:  # anchor on the aromatic cation; hydration is added later
         micro_ref = ANHYDROUS[ref.name] - math.log10(ref.n_equiv)
+        anchor_text = f"{ref.name} (anhydrous cation {ANHYDROUS[ref.name]:.2f}, Albert, Armarego & Spinner 1961)"
     ref_model, _ = _model(ref.mol, ref.site, fam)
     shifted = micro_ref + (value - ref_model)
     return (
         shifted,
-        f"anchored on {ref.name} ({ref.pka1:.2f}) with {label}",
+        f"anchored on {anchor_text} with {label}",
         f"{ref.name}: {ref.source}; shift from the class model",
         max(unc - 0.1, 0.2) + _ANCHOR_EXTRA,
     )
