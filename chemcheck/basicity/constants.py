@@ -192,3 +192,18 @@ HYDRATION_SLOPE = 0.5
 # (hindrance to the solvation of the ammonium ion). Our estimate; 2,2,6,6-tetramethylpiperidine
 # 11.07 against piperidine 11.12 (from memory), where the Taft sum alone gives about 12.4.
 CROWDED_AMMONIUM = 0.2
+# Pyridazine-type rings: a substituent two ring atoms from the basic N, with a ring aza N in
+# between (C3 of pyridazine seen from N1), conjugates with that aza N, which is bonded to the
+# basic N: it acts with sigma_m plus this share of (sigma_p - sigma_m).
+ALPHA_AZA_RESONANCE = 0.75
+# sigma for a group para to a pyridine-type N where sigma_p misses its resonance with the
+# cation. An alkylthio group gives its sulfur lone pair to a pyridinium N as it does to a
+# carbocation: sigma_p 0.00 and sigma_p+ -0.60 [HLT]; 4-(methylthio)pyridine 5.94 against
+# pyridine 5.25 (from memory) puts it between them. Our estimate.
+AZINE_PARA_SIGMA: dict[str, float] = {"SR": -0.2}
+# Added to the ortho increment of an alkoxy or alkylthio group that sits between the basic N
+# and a second ring N (C2 of a pyrimidine, a quinazoline or a 1,3,5-triazine). Its lone pair
+# conjugates with both ring N (an isourea-like unit), which offsets much of the drop seen next
+# to a single ring N (2-methoxypyridine 3.28, 2-methylthiopyridine 3.59 against pyridine 5.25).
+# Our estimate, one number per group.
+BETWEEN_AZA: dict[str, float] = {"OMe": 1.6, "SR": 0.8}

@@ -328,6 +328,8 @@ def _sigma_for(key: str, position: int, para_acceptor_minus: bool | None) -> flo
     if position == 2:
         return sm
     if position == 3:
+        if para_acceptor_minus is None and key in K.AZINE_PARA_SIGMA:
+            return K.AZINE_PARA_SIGMA[key]
         if key in _PI_ACCEPTORS:
             if para_acceptor_minus:
                 return spm
@@ -431,6 +433,24 @@ def _key_of(mol: Chem.Mol, atom: Chem.Atom, x: Chem.Atom, ring: list[int]) -> st
     return classify_substituent(mol, atom, x, set(ring))
 
 
+def _through_aza(mol: Chem.Mol, ring: list[int], centre: int, idx: int) -> bool:
+    """The ring atom between ``centre`` and ``idx`` (two apart) is a pyridine-type N."""
+    a = mol.GetAtomWithIdx(centre)
+    return any(
+        x.GetIdx() in ring and is_aza(x) and mol.GetBondBetweenAtoms(x.GetIdx(), idx) is not None
+        for x in a.GetNeighbors()
+    )
+
+
+def _next_to_other_aza(mol: Chem.Mol, ring: list[int], centre: int, idx: int) -> bool:
+    """Ring atom ``idx`` also sits next to a pyridine-type N other than ``centre`` (C2 of a
+    pyrimidine seen from N1)."""
+    return any(
+        x.GetIdx() in ring and x.GetIdx() != centre and is_aza(x)
+        for x in mol.GetAtomWithIdx(idx).GetNeighbors()
+    )
+
+
 def _hammett_sum(
     mol: Chem.Mol,
     ring: list[int],
@@ -467,11 +487,16 @@ def _hammett_sum(
             continue
         if d == 1:
             term = ortho_table.get(key, default_ortho if key != "H" else 0.0)
+            if key in K.BETWEEN_AZA and _next_to_other_aza(mol, ring, centre, idx):
+                term += K.BETWEEN_AZA[key]
             ortho += term
             if donors is not None and key in _PI_DONORS:
                 donors.append((idx, "ortho", term))
         else:
-            term = _twisted_sigma(mol, ring, centre, key, d, _sigma_for(key, d, para_minus))
+            sg = _sigma_for(key, d, para_minus)
+            if d == 2 and _through_aza(mol, ring, centre, idx):
+                sg += K.ALPHA_AZA_RESONANCE * (_sigma_for(key, 3, para_minus) - sg)
+            term = _twisted_sigma(mol, ring, centre, key, d, sg)
             sigma += term
             if donors is not None and key in _PI_DONORS and d == 3:
                 donors.append((idx, "sigma", term))
