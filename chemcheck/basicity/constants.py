@@ -188,10 +188,13 @@ HYDRATION_LOG_KN = -4.27
 # more than quinazoline): log Kn rises by this much per unit by which the aromatic cation's pKa
 # lies below anhydrous quinazoline's. Our estimate of a linear free-energy relation.
 HYDRATION_SLOPE = 0.5
-# Secondary and tertiary amines: per carbon branch beyond the first on each alpha carbon
-# (hindrance to the solvation of the ammonium ion). Our estimate; 2,2,6,6-tetramethylpiperidine
-# 11.07 against piperidine 11.12 (from memory), where the Taft sum alone gives about 12.4.
-CROWDED_AMMONIUM = 0.2
+# Per carbon branch beyond the first on each alpha carbon, taken off the Taft value: a branched
+# ammonium ion is less well solvated, which the sigma* of the extra alkyl groups does not see.
+# Primary amines: in water alpha-branching adds nothing (ethylamine 10.65, isopropylamine 10.63,
+# tert-butylamine 10.68, CRC, from memory), so the term cancels the branch's sigma* (-0.10 x
+# rho* 3.14). Secondary and tertiary: 2,2,6,6-tetramethylpiperidine 11.07 against piperidine
+# 11.12 (from memory), where the Taft sum alone gives about 12.4. Our estimates, per class.
+CROWDED_AMMONIUM: dict[str, float] = {"primary": 0.3, "secondary": 0.3, "tertiary": 0.2}
 # Pyridazine-type rings: a substituent two ring atoms from the basic N, with a ring aza N in
 # between (C3 of pyridazine seen from N1), conjugates with that aza N, which is bonded to the
 # basic N: it acts with sigma_m plus this share of (sigma_p - sigma_m).

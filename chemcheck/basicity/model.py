@@ -182,12 +182,11 @@ def aliphatic(mol: Chem.Mol, n_idx: int) -> tuple[float, str]:
     # can stabilise it, which the sigma* of branched alkyl groups does not see
     # (2,2,6,6-tetramethylpiperidine is no stronger a base than piperidine)
     crowd = 0.0
-    if cls != "primary":
-        for x in heavy:
-            if x.GetAtomicNum() == 6 and not x.GetIsAromatic():
-                branches = sum(1 for y in x.GetNeighbors() if y.GetIdx() != n_idx and y.GetAtomicNum() == 6)
-                crowd += max(0, branches - 1)
-    pka = a - rho * sigma - K.CROWDED_AMMONIUM * crowd
+    for x in heavy:
+        if x.GetAtomicNum() == 6 and not x.GetIsAromatic():
+            branches = sum(1 for y in x.GetNeighbors() if y.GetIdx() != n_idx and y.GetAtomicNum() == 6)
+            crowd += max(0, branches - 1)
+    pka = a - rho * sigma - K.CROWDED_AMMONIUM[cls] * crowd
     return pka, f"Taft equation, {cls} amine (sum sigma* {sigma:+.2f})"
 
 
