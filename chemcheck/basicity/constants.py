@@ -110,6 +110,17 @@ SIGMA_STAR_Z: dict[str, float] = {
 AZOLE_RHO = 6.5  # estimated, 5-ring azoles with sigma_m of the substituent (uncertain)
 AZA_SIGMA = {"ortho": None, "meta": 0.65, "para": 0.78}  # an extra ring N as a substituent
 AZA_ORTHO_INCREMENT = -2.9  # pyridazine (2.33) against pyridine (5.25)
+# Diazines with an amino group ortho or para to the basic N: the cation is an amidinium-like ion
+# whose charge sits partly on the exocyclic N, and the other substituents act with this share of
+# rho (2-amino-5-nitropyrimidine 0.35 against 2-aminopyrimidine 3.54, P65 as recalled: 0.76 of
+# the full sigma_m term). In pyridines the full rho holds (2-amino-5-nitropyridine 2.80, 2-amino-
+# 5-chloropyridine 4.71 against 2-aminopyridine 6.86, from memory). Our estimate.
+DIAZINE_RHO_FACTOR = 0.75
+# A third amino group on a pyrimidine ring adds this much less than the additive sum: two amino
+# groups already spread the charge (2,4,6-triaminopyrimidine 6.84 against 2,4-diaminopyrimidine
+# 7.40, from memory). Melamines, whose amino groups all sit between two ring N, stay additive.
+# Our estimate.
+THIRD_AMINO = 0.8
 
 # Ring C=O (lactam, pyridone, pyrimidinone positions) and a ring N bearing a substituent (its
 # lone pair in the pi system) in six-membered rings. No literature constants exist for these;

@@ -756,6 +756,16 @@ def azine(mol: Chem.Mol, n_idx: int) -> tuple[float, str]:
         strong_donor = any(
             (kind == "ortho" and term > 0) or (kind == "sigma" and term < -0.3) for _i, kind, term in donors
         )
+        # in an amino-diazine the other substituents act with a reduced rho, and a third amino
+        # group on a pyrimidine adds less (constants.DIAZINE_RHO_FACTOR, THIRD_AMINO)
+        aza = [d for d, key, _i in _ring_substituents_at(mol, ring6, n_idx) if key == "aza" and d > 1]
+        if strong_donor and aza:
+            fixed = sum(K.AZA_SIGMA["meta" if d == 2 else "para"] for d in aza)
+            fixed += sum(term for _i, kind, term in donors if kind == "sigma")
+            sigma = fixed + K.DIAZINE_RHO_FACTOR * (sigma - fixed)
+        amino = sum(1 for _d, key, _i in _ring_substituents_at(mol, ring6, n_idx) if key in ("NH2", "NHR", "NR2"))
+        if len(aza) == 1 and amino > 2:
+            pka -= K.THIRD_AMINO * (amino - 2)
         if not strong_donor:
             pka += _peri(mol, ring6, n_idx)
         return pka + ortho - K.PYRIDINE["rho"] * sigma, f"Hammett equation, pyridine-type N (sum sigma {sigma:+.2f})"
