@@ -214,9 +214,13 @@ ALPHA_AZA_RESONANCE = 0.75
 # carbocation: sigma_p 0.00 and sigma_p+ -0.60 [HLT]; 4-(methylthio)pyridine 5.94 against
 # pyridine 5.25 (from memory) puts it between them. Our estimate.
 AZINE_PARA_SIGMA: dict[str, float] = {"SR": -0.2}
-# Added to the ortho increment of an alkoxy or alkylthio group that sits between the basic N
-# and a second ring N (C2 of a pyrimidine, a quinazoline or a 1,3,5-triazine). Its lone pair
-# conjugates with both ring N (an isourea-like unit), which offsets much of the drop seen next
-# to a single ring N (2-methoxypyridine 3.28, 2-methylthiopyridine 3.59 against pyridine 5.25).
-# Our estimate, one number per group.
-BETWEEN_AZA: dict[str, float] = {"OMe": 1.6, "SR": 0.8}
+# Added to the ortho increment of an electronegative group that sits between the basic N and a
+# second ring N (C2 of a pyrimidine, a quinazoline or a 1,3,5-triazine). The second ring N has
+# already drawn electron density from that carbon, and the group's pull on the basic N is
+# smaller than next to a single ring N; an alkoxy or alkylthio group also conjugates with both
+# ring N (an isourea-like unit). The pyridine increments are 2-methoxypyridine 3.28,
+# 2-methylthiopyridine 3.59, 2-chloropyridine 0.72 against pyridine 5.25 (CRC). Our estimates:
+# one number for the halogens and CX3 groups, one each for alkoxy and alkylthio.
+BETWEEN_AZA: dict[str, float] = {
+    "OMe": 1.6, "SR": 0.8, "F": 1.4, "Cl": 1.4, "Br": 1.4, "I": 1.4, "CF3": 1.4, "CCl3": 1.4,
+}
