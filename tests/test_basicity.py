@@ -118,20 +118,20 @@ def _accuracy(path, cls=None):
     return statistics.fmean(errs), len(errs)
 
 
-# Regression guards at the accuracy measured when the methods landed (docs/basicity.md);
-# the goals of the basicity issue (overall 0.5, pyridines 0.3) are not yet met; primary
-# anilines (0.25) meet theirs.
+# Regression guards just above the accuracy measured when the methods landed
+# (docs/basicity.md); the goals of the basicity issue (overall 0.5, pyridines 0.3) are not yet
+# met; primary anilines (0.24) meet theirs.
 @pytest.mark.parametrize(
     "classes,limit",
     [
-        (None, 0.65),
+        (None, 0.57),
         (("aniline_primary",), 0.30),
-        (("azine_polyaza",), 0.95),
-        (("other_heteroaromatic",), 0.76),
-        (("aliphatic_primary", "aliphatic_secondary", "aliphatic_tertiary"), 0.58),
-        (("pyridine",), 0.50),
-        (("imidazole",), 0.60),
-        (("amidine_guanidine",), 0.52),
+        (("azine_polyaza",), 0.76),
+        (("other_heteroaromatic",), 0.73),
+        (("aliphatic_primary", "aliphatic_secondary", "aliphatic_tertiary"), 0.49),
+        (("pyridine",), 0.47),
+        (("imidazole",), 0.57),
+        (("amidine_guanidine",), 0.49),
     ],
 )
 def test_accuracy_on_the_iupac_dataset(pka_dataset_dir, classes, limit):
@@ -142,7 +142,7 @@ def test_accuracy_on_the_iupac_dataset(pka_dataset_dir, classes, limit):
 
 def test_multisite_accuracy(pka_dataset_dir):
     mae, n = _accuracy(pka_dataset_dir / "amine_pka_multisite_dev.csv")
-    assert n > 200 and mae <= 0.68
+    assert n > 200 and mae <= 0.64
 
 
 @pytest.mark.parametrize(
@@ -380,3 +380,42 @@ def test_crowded_ammonium_ions_are_less_solvated():
     # (CRC); the alkyl sigma* alone would put it near 12.4
     _, tmp = _first("CC1(C)CCCC(C)(C)N1")
     assert tmp <= 11.8
+
+
+def test_alpha_branching_does_not_raise_a_primary_amine():
+    # sec-butylamine 10.56 and n-butylamine 10.64 (CRC, from memory): in water branching at
+    # the alpha carbon adds nothing; the alkyl sigma* alone would put 3-pentylamine near 11.0
+    _, sec_butyl = _first("CCC(C)N")
+    _, pentyl3 = _first("CCC(N)CC")
+    assert abs(sec_butyl - 10.56) <= 0.3
+    assert pentyl3 <= 10.85
+
+
+def test_a_substituent_conjugates_through_the_adjacent_ring_n_of_a_pyridazine():
+    # 3-aminopyridazine 5.19 against pyridazine 2.33 (Albert, Goldacre & Phillips, J. Chem.
+    # Soc. 1948, from memory): sigma_m of the amino group alone gives about 3.3
+    _, value = _first("Nc1cccnn1")
+    assert abs(value - 5.19) <= 0.5
+
+
+def test_alkylthio_para_to_a_pyridine_n_donates():
+    # 4-(methylthio)pyridine 5.94 against pyridine 5.25 (from memory); sigma_p 0.00 gives 5.25
+    _, value = _first("CSc1ccncc1")
+    assert abs(value - 5.94) <= 0.4
+
+
+def test_an_alkoxy_group_between_two_ring_n_costs_little():
+    # 2-methoxypyrimidine about 1.0 against pyrimidine 1.30 (from memory), where the
+    # 2-methoxypyridine increment (-1.97) would put it near -0.7
+    _, value = _first("COc1ncccn1")
+    assert abs(value - 1.0) <= 0.5
+
+
+def test_resonance_does_not_cross_the_fusion_bond():
+    # 5-aminoquinoline 5.46, 7-aminoquinoline 6.65 (Albert, from memory): both positions are an
+    # odd number of bonds from N1, but only C7 is conjugated with it along the periphery
+    _, five = _first("Nc1cccc2ncccc12")
+    _, seven = _first("Nc1ccc2cccnc2c1")
+    assert abs(five - 5.46) <= 0.4
+    assert abs(seven - 6.65) <= 0.4
+    assert seven > five + 0.8

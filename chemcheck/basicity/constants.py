@@ -212,8 +212,9 @@ ALPHA_AZA_RESONANCE = 0.75
 # sigma for a group para to a pyridine-type N where sigma_p misses its resonance with the
 # cation. An alkylthio group gives its sulfur lone pair to a pyridinium N as it does to a
 # carbocation: sigma_p 0.00 and sigma_p+ -0.60 [HLT]; 4-(methylthio)pyridine 5.94 against
-# pyridine 5.25 (from memory) puts it between them. Our estimate.
-AZINE_PARA_SIGMA: dict[str, float] = {"SR": -0.2}
+# pyridine 5.25 (from memory) puts it at about -0.12; para to a diazine N it acts a little more
+# strongly. Our estimate.
+AZINE_PARA_SIGMA: dict[str, float] = {"SR": -0.15}
 # Added to the ortho increment of an electronegative group that sits between the basic N and a
 # second ring N (C2 of a pyrimidine, a quinazoline or a 1,3,5-triazine). The second ring N has
 # already drawn electron density from that carbon, and the group's pull on the basic N is
