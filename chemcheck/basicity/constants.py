@@ -43,6 +43,10 @@ HAMMETT: dict[str, tuple[float, float, float]] = {
     "NHR": (-0.21, -0.70, -0.70),
     "NR2": (-0.16, -0.83, -0.12),
     "NHAc": (0.21, 0.00, -0.46),
+    # the pyrrole-type N of a fused azole ring, seen from the other ring (imidazo[4,5-c]pyridine,
+    # purines): its lone pair belongs to the azole sextet but still gives to the fused ring,
+    # less than an amino group does. Our estimate, between NHAc and NHR.
+    "fused_nR": (0.0, -0.4, -0.4),
     "NH3+": (0.86, 0.60, 0.56),
     "NR3+": (0.88, 0.82, 0.77),
     "NO2": (0.71, 0.78, 1.27),

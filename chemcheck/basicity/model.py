@@ -248,6 +248,13 @@ def classify_substituent(mol: Chem.Mol, ring_atom: Chem.Atom, x: Chem.Atom, ring
                 return "NO2"
             return "NH3+" if x.GetTotalNumHs() else "NR3+"
         if x.GetIsAromatic():
+            if (
+                (x.GetDegree() == 3 or x.GetTotalNumHs() > 0)
+                and mol.GetRingInfo().NumAtomRings(ring_atom.GetIdx()) > 1
+                and mol.GetRingInfo().AreAtomsInSameRing(ring_atom.GetIdx(), x.GetIdx())
+                and _ring_of(mol, x.GetIdx(), 5) is not None
+            ):
+                return "fused_nR"  # the pyrrole-type N of a fused azole
             return "NHAc"
         nbrs = [n for n in x.GetNeighbors() if n.GetIdx() != ring_atom.GetIdx()]
         for n in nbrs:
