@@ -94,6 +94,12 @@ TAFT_AMINE = {
     "tertiary": (9.61, 3.30),
 }
 ATTENUATION = 0.4  # per intervening carbon [PDS]
+# The sigma* of an electron-withdrawing group (from ester hydrolysis rates) understates its pull
+# on an ammonium ion close by in water: with the Taft slopes alone, amines carrying nitrile,
+# ester, halogen or alkoxy groups come out 0.5-1 unit too basic (2-chloroethylamine 8.79,
+# aminoacetonitrile 5.34, CRC and PDS, from memory). Each group on N with a positive sigma*
+# counts this many times. Our estimate, checked as one number against the development set.
+TAFT_EWG_SCALE = 1.2
 ALKYL_SIGMA_STAR = -0.10  # the contribution of one alkyl carbon on the alpha carbon (sigma*(Et))
 
 # sigma* of CH2-Z for heteroatom groups Z [PDS Taft table]; additive on the alpha carbon

@@ -170,6 +170,24 @@ def _benzyl_ring_sigma(mol: Chem.Mol, ipso: Chem.Atom) -> float:
     return total
 
 
+def _carries_cation(mol: Chem.Mol, start: Chem.Atom, parent: Chem.Atom, depth: int = 4) -> bool:
+    """A positively charged atom (other than the N of a nitro group) within ``depth`` bonds of
+    ``start``, away from ``parent``."""
+    seen = {parent.GetIdx(), start.GetIdx()}
+    frontier = [start]
+    for _ in range(depth + 1):
+        nxt = []
+        for a in frontier:
+            if a.GetFormalCharge() > 0 and not any(y.GetFormalCharge() < 0 for y in a.GetNeighbors()):
+                return True
+            for y in a.GetNeighbors():
+                if y.GetIdx() not in seen:
+                    seen.add(y.GetIdx())
+                    nxt.append(y)
+        frontier = nxt
+    return False
+
+
 def aliphatic(mol: Chem.Mol, n_idx: int) -> tuple[float, str]:
     n = mol.GetAtomWithIdx(n_idx)
     heavy = [x for x in n.GetNeighbors() if x.GetAtomicNum() > 1]
@@ -177,7 +195,12 @@ def aliphatic(mol: Chem.Mol, n_idx: int) -> tuple[float, str]:
         return 9.25, "ammonia"
     cls = {2: "primary", 1: "secondary", 0: "tertiary"}.get(n.GetTotalNumHs(), "tertiary")
     a, rho = K.TAFT_AMINE[cls]
-    sigma = sum(group_sigma_star(mol, x, n) for x in heavy)
+    # a neutral electron-withdrawing group counts K.TAFT_EWG_SCALE times; the sigma* of a
+    # charged group (the ammonium ion of a diamine's second step) is used as it stands
+    sigma = 0.0
+    for x in heavy:
+        g = group_sigma_star(mol, x, n)
+        sigma += g * K.TAFT_EWG_SCALE if g > 0 and not _carries_cation(mol, x, n) else g
     # steric hindrance to solvation: the fewer N-H a crowded ammonium ion has, the less water
     # can stabilise it, which the sigma* of branched alkyl groups does not see
     # (2,2,6,6-tetramethylpiperidine is no stronger a base than piperidine)
