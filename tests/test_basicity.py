@@ -435,3 +435,12 @@ def test_electron_withdrawing_groups_pull_harder_on_an_ammonium_ion():
     _, cyano = _first("N#CCN")
     assert abs(chloro - 8.79) <= 0.3
     assert abs(cyano - 5.34) <= 0.4
+
+
+def test_alkyl_groups_beyond_the_alpha_carbon_add_little():
+    # common practice: n-propyl-, n-butyl- and n-hexylamine all lie within 0.1 of ethylamine
+    # (10.57-10.65, CRC, from memory); alkyl sigma* summed along a ring both ways round put
+    # 3,3,5,5-tetramethylpiperidine 0.6 above piperidine (11.12)
+    _, piperidine = _first("C1CCNCC1")
+    _, tetramethyl = _first("CC1(C)CNCC(C)(C)C1")
+    assert abs(tetramethyl - piperidine) <= 0.3

@@ -149,9 +149,12 @@ def _term(mol, y: Chem.Atom, a: Chem.Atom, bond, depth: int, path) -> float:
             other = [b2.GetOtherAtom(y) for b2 in y.GetBonds() if b2.GetBondType() == Chem.BondType.DOUBLE][0]
             return K.SIGMA_STAR_Z["C=N"] if other.GetAtomicNum() == 7 else K.SIGMA_STAR_Z["C=C"]
         if depth >= 3:
-            return K.ALKYL_SIGMA_STAR
+            return 0.0
         s = group_sigma_star(mol, y, a, depth + 1, path)
-        alkyl_weight = min(1.0, max(0.0, 1.0 - s / 0.25))
+        # an alkyl carbon on the alpha carbon gives sigma*(Et); farther out an alkyl chain adds
+        # nothing in water (n-propyl-, n-butyl-, n-hexylamine 10.57, 10.64, 10.56 against
+        # ethylamine 10.65, CRC, from memory; in rings the sums also ran both ways round)
+        alkyl_weight = min(1.0, max(0.0, 1.0 - s / 0.25)) if depth == 0 else 0.0
         return K.ATTENUATION * s + K.ALKYL_SIGMA_STAR * alkyl_weight
     key = _hetero_key(mol, y, a)
     return K.SIGMA_STAR_Z.get(key, 0.0) if key else 0.0
