@@ -136,7 +136,10 @@ THIRD_AMINO = 0.8
 # the values are our estimates from the chemistry (a ring C=O acts as a vinylogous acyl group,
 # a ring N-R as a ring NR2 donor) and carry a wide uncertainty.
 RING_OXO = {"ortho": -3.5, "meta": 0.5, "para": 1.0}
-RING_NR_SIGMA = {"meta": -0.16, "para": -0.5}
+# A ring N-R para to the site gives less than a ring NR2 donor would (-0.5): it nearly always
+# sits next to a ring C=O (pyrimidinones, pteridinones), which takes a share of its lone pair.
+# Our estimate, checked as one number against the development set.
+RING_NR_SIGMA = {"meta": -0.16, "para": -0.3}
 # rho of the benzylammonium ions against ring substituents, in sigma* units of the CH2-aryl
 # group: rho(ArCH2NH3+) = 1.06 (PDS) divided by rho*(primary amines) = 3.14.
 BENZYL_RING_FACTOR = 1.06 / 3.14
