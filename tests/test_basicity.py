@@ -124,14 +124,14 @@ def _accuracy(path, cls=None):
 @pytest.mark.parametrize(
     "classes,limit",
     [
-        (None, 0.57),
+        (None, 0.54),
         (("aniline_primary",), 0.30),
-        (("azine_polyaza",), 0.76),
-        (("other_heteroaromatic",), 0.73),
-        (("aliphatic_primary", "aliphatic_secondary", "aliphatic_tertiary"), 0.49),
-        (("pyridine",), 0.47),
-        (("imidazole",), 0.57),
-        (("amidine_guanidine",), 0.49),
+        (("azine_polyaza",), 0.75),
+        (("other_heteroaromatic",), 0.63),
+        (("aliphatic_primary", "aliphatic_secondary", "aliphatic_tertiary"), 0.41),
+        (("pyridine",), 0.46),
+        (("imidazole",), 0.56),
+        (("amidine_guanidine",), 0.48),
     ],
 )
 def test_accuracy_on_the_iupac_dataset(pka_dataset_dir, classes, limit):
@@ -142,7 +142,7 @@ def test_accuracy_on_the_iupac_dataset(pka_dataset_dir, classes, limit):
 
 def test_multisite_accuracy(pka_dataset_dir):
     mae, n = _accuracy(pka_dataset_dir / "amine_pka_multisite_dev.csv")
-    assert n > 200 and mae <= 0.64
+    assert n > 200 and mae <= 0.60
 
 
 @pytest.mark.parametrize(
