@@ -444,3 +444,11 @@ def test_alkyl_groups_beyond_the_alpha_carbon_add_little():
     _, piperidine = _first("C1CCNCC1")
     _, tetramethyl = _first("CC1(C)CNCC(C)(C)C1")
     assert abs(tetramethyl - piperidine) <= 0.3
+
+
+def test_a_sulfinyl_group_withdraws_less_than_a_sulfonyl_group():
+    # sigma_m 0.52 against 0.60 for methylsulfinyl and methylsulfonyl (Hansch, Leo & Taft 1991,
+    # as recalled): the sulfoxide is no longer taken for the sulfone
+    _, sulfinyl = _first("CS(=O)c1cccnc1")
+    _, sulfonyl = _first("CS(=O)(=O)c1cccnc1")
+    assert sulfinyl > sulfonyl + 0.3

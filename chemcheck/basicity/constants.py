@@ -58,6 +58,7 @@ HAMMETT: dict[str, tuple[float, float, float]] = {
     "COO-": (-0.10, 0.00, 0.31),
     "CONH2": (0.28, 0.36, 0.61),
     "SO2R": (0.60, 0.72, 1.13),
+    "SOR": (0.52, 0.49, 0.73),  # methylsulfinyl [HLT], as recalled; it used to be taken as SO2R
     "SO2N": (0.53, 0.60, 0.94),
     "SO3-": (0.30, 0.35, 0.35),
     "SR": (0.15, 0.00, 0.06),
@@ -82,6 +83,7 @@ ORTHO_PYRIDINE: dict[str, float] = {
     "COR": -2.6, "CHO": -3.4, "CF3": -5.8, "NO2": -7.8, "Ph": -0.77, "SR": -1.66,
     "vinyl": -0.27, "CONH2": -3.2, "NHAc": -1.1, "CH2X": -0.4, "CH2N": -0.3, "OH": -5.0,
     "fused": -0.35, "ethynyl": -2.5, "OAc": -3.0, "SO2R": -6.0, "SO2N": -6.0,
+    "SOR": -5.0,  # our estimate, below the sulfonyl group
 }
 
 # --- reaction constants ----------------------------------------------------------------------

@@ -23,7 +23,7 @@ def is_aza(atom: Chem.Atom) -> bool:
         atom.GetAtomicNum() == 7 and atom.GetIsAromatic() and atom.GetDegree() == 2
         and atom.GetTotalNumHs(includeNeighbors=True) == 0 and atom.GetFormalCharge() == 0
     )
-_PI_ACCEPTORS = {"NO2", "CN", "CHO", "COR", "COOR", "COOH", "CONH2", "SO2R", "SO2N", "CF3", "ethynyl", "N=N", "SH"}
+_PI_ACCEPTORS = {"NO2", "CN", "CHO", "COR", "COOR", "COOH", "CONH2", "SO2R", "SOR", "SO2N", "CF3", "ethynyl", "N=N", "SH"}
 
 
 # --------------------------------------------------------------------------- aliphatic (Taft)
@@ -318,7 +318,7 @@ def classify_substituent(mol: Chem.Mol, ring_atom: Chem.Atom, x: Chem.Atom, ring
                 return "SO3-"
             return "SO2R"
         if n_oxo == 1:
-            return "SO2R"
+            return "SOR"  # sulfinyl
         return "SH" if x.GetTotalNumHs() else "SR"
     if z == 14:
         return "SiR3"
