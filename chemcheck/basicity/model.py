@@ -217,6 +217,12 @@ def aliphatic(mol: Chem.Mol, n_idx: int) -> tuple[float, str]:
 
 
 # --------------------------------------------------------------------------- aromatic rings
+def _in_fused_ring(mol: Chem.Mol, ring_atom: Chem.Atom, x: Chem.Atom) -> bool:
+    """``x`` belongs to a ring fused on at ``ring_atom`` (not to a substituent)."""
+    rings = mol.GetRingInfo()
+    return rings.NumAtomRings(ring_atom.GetIdx()) > 1 and rings.AreAtomsInSameRing(ring_atom.GetIdx(), x.GetIdx())
+
+
 def classify_substituent(mol: Chem.Mol, ring_atom: Chem.Atom, x: Chem.Atom, ring: set[int]) -> str:
     """A Hammett key for the substituent that starts at ``x`` on ``ring_atom``."""
     z = x.GetAtomicNum()
@@ -224,10 +230,7 @@ def classify_substituent(mol: Chem.Mol, ring_atom: Chem.Atom, x: Chem.Atom, ring
         return x.GetSymbol()
     if z == 6:
         if x.GetIsAromatic():
-            rings = mol.GetRingInfo()
-            if rings.NumAtomRings(ring_atom.GetIdx()) > 1 and rings.AreAtomsInSameRing(ring_atom.GetIdx(), x.GetIdx()):
-                return "fused"
-            return "Ph"
+            return "fused" if _in_fused_ring(mol, ring_atom, x) else "Ph"
         nbrs = [n for n in x.GetNeighbors() if n.GetIdx() != ring_atom.GetIdx()]
         kinds = _carbonyl_kind(mol, x)
         if kinds:
@@ -274,12 +277,8 @@ def classify_substituent(mol: Chem.Mol, ring_atom: Chem.Atom, x: Chem.Atom, ring
                 return "NO2"
             return "NH3+" if x.GetTotalNumHs() else "NR3+"
         if x.GetIsAromatic():
-            if (
-                (x.GetDegree() == 3 or x.GetTotalNumHs() > 0)
-                and mol.GetRingInfo().NumAtomRings(ring_atom.GetIdx()) > 1
-                and mol.GetRingInfo().AreAtomsInSameRing(ring_atom.GetIdx(), x.GetIdx())
-                and _ring_of(mol, x.GetIdx(), 5) is not None
-            ):
+            pyrrole_type = x.GetDegree() == 3 or x.GetTotalNumHs() > 0
+            if pyrrole_type and _in_fused_ring(mol, ring_atom, x) and _ring_of(mol, x.GetIdx(), 5) is not None:
                 return "fused_nR"  # the pyrrole-type N of a fused azole
             return "NHAc"
         nbrs = [n for n in x.GetNeighbors() if n.GetIdx() != ring_atom.GetIdx()]
@@ -465,22 +464,14 @@ def _key_of(mol: Chem.Mol, atom: Chem.Atom, x: Chem.Atom, ring: list[int]) -> st
     return classify_substituent(mol, atom, x, set(ring))
 
 
-def _through_aza(mol: Chem.Mol, ring: list[int], centre: int, idx: int) -> bool:
-    """The ring atom between ``centre`` and ``idx`` (two apart) is a pyridine-type N."""
-    a = mol.GetAtomWithIdx(centre)
-    return any(
-        x.GetIdx() in ring and is_aza(x) and mol.GetBondBetweenAtoms(x.GetIdx(), idx) is not None
-        for x in a.GetNeighbors()
-    )
-
-
-def _next_to_other_aza(mol: Chem.Mol, ring: list[int], centre: int, idx: int) -> bool:
-    """Ring atom ``idx`` also sits next to a pyridine-type N other than ``centre`` (C2 of a
-    pyrimidine seen from N1)."""
-    return any(
-        x.GetIdx() in ring and x.GetIdx() != centre and is_aza(x)
-        for x in mol.GetAtomWithIdx(idx).GetNeighbors()
-    )
+def _aza_beside(mol: Chem.Mol, ring: list[int], idx: int, centre: int) -> list[int]:
+    """Pyridine-type ring N next to ring atom ``idx``, other than ``centre``. Seen from the
+    site, one at ring distance 1 sits between the site and a second ring N (C2 of a pyrimidine),
+    one at distance 2 has a ring N between it and the site (C3 of a pyridazine)."""
+    return [
+        x.GetIdx() for x in mol.GetAtomWithIdx(idx).GetNeighbors()
+        if x.GetIdx() in ring and x.GetIdx() != centre and is_aza(x)
+    ]
 
 
 def _hammett_sum(
@@ -519,14 +510,14 @@ def _hammett_sum(
             continue
         if d == 1:
             term = ortho_table.get(key, default_ortho if key != "H" else 0.0)
-            if key in K.BETWEEN_AZA and _next_to_other_aza(mol, ring, centre, idx):
+            if key in K.BETWEEN_AZA and _aza_beside(mol, ring, idx, centre):
                 term += K.BETWEEN_AZA[key]
             ortho += term
             if donors is not None and key in _PI_DONORS:
                 donors.append((idx, "ortho", term))
         else:
             sg = _sigma_for(key, d, para_minus)
-            if d == 2 and _through_aza(mol, ring, centre, idx):
+            if d == 2 and any(mol.GetBondBetweenAtoms(a, centre) for a in _aza_beside(mol, ring, idx, centre)):
                 sg += K.ALPHA_AZA_RESONANCE * (_sigma_for(key, 3, para_minus) - sg)
             term = _twisted_sigma(mol, ring, centre, key, d, sg)
             sigma += term
@@ -804,12 +795,13 @@ def azine(mol: Chem.Mol, n_idx: int) -> tuple[float, str]:
         )
         # in an amino-diazine the other substituents act with a reduced rho, and a third amino
         # group on a pyrimidine adds less (constants.DIAZINE_RHO_FACTOR, THIRD_AMINO)
-        aza = [d for d, key, _i in _ring_substituents_at(mol, ring6, n_idx) if key == "aza" and d > 1]
+        subs = [(d, key) for d, key, _i in _ring_substituents_at(mol, ring6, n_idx)]
+        aza = [d for d, key in subs if key == "aza" and d > 1]
         if strong_donor and aza:
             fixed = sum(K.AZA_SIGMA["meta" if d == 2 else "para"] for d in aza)
             fixed += sum(term for _i, kind, term in donors if kind == "sigma")
             sigma = fixed + K.DIAZINE_RHO_FACTOR * (sigma - fixed)
-        amino = sum(1 for _d, key, _i in _ring_substituents_at(mol, ring6, n_idx) if key in ("NH2", "NHR", "NR2"))
+        amino = sum(1 for _d, key in subs if key in ("NH2", "NHR", "NR2"))
         if len(aza) == 1 and amino > 2:
             pka -= K.THIRD_AMINO * (amino - 2)
         if not strong_donor:
