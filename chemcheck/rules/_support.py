@@ -105,6 +105,32 @@ def nucleophile_sites(ctx: Context, comp: Component, kinds=NUCLEOPHILIC_N):
     return out
 
 
+def protonated_at(ctx: Context, comp: Component, site):
+    """The site whose protonation takes ``site`` out of the reaction: ``site`` itself, or a more
+    basic ring N of the aromatic ring system that carries it (an aminopyridine or aminopyridazine
+    protonates on the ring N, and its cation's amino group no longer reacts). A basic site
+    elsewhere in the molecule does not count: the nucleophile stays free beside it."""
+    mol = comp.mol
+    n = mol.GetAtomWithIdx(site.atom_index)
+    info = mol.GetRingInfo()
+    system: set[int] = set()
+    for x in n.GetNeighbors():
+        if not x.GetIsAromatic():
+            continue
+        frontier = {x.GetIdx()}
+        while frontier:
+            system |= frontier
+            frontier = {
+                j for r in info.AtomRings() if frontier & set(r) and all(mol.GetAtomWithIdx(i).GetIsAromatic() for i in r)
+                for j in r
+            } - system
+    best = site
+    for s in ctx.sites(comp):
+        if s.atom_index in system and s.pka is not None and s.kind != "ammonium" and s.pka > best.pka:
+            best = s
+    return best
+
+
 def _free_kind(ctx: Context, comp: Component, idx: int) -> str:
     from ..basicity import _deprotonate
     from ..perceive import nitrogen_sites

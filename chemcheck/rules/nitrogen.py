@@ -19,6 +19,7 @@ from ._support import (
     changed_nitrogens,
     electrophiles,
     nucleophile_sites,
+    protonated_at,
     released_acid,
     salt_info,
 )
@@ -137,10 +138,16 @@ def lewis_acid_quenched_by_amine(ctx: Context):
                 f"Leave {comp.label} out of the Lewis-acid step (it is not needed to take up HCl in a "
                 "Friedel–Crafts reaction), or use a Lewis acid the amine does not bind."
             )
-        else:
+        elif comp.mol.GetAtomWithIdx(best.atom_index).GetTotalNumHs() > 0:
             fix = (
                 f"Protect the nitrogen of {comp.label} as an amide (e.g. the acetamide from Ac2O), run the "
                 "reaction, then hydrolyse the amide."
+            )
+        else:
+            fix = (
+                f"The nitrogen of {comp.label} carries no N–H, so it cannot be protected as an amide: run the "
+                "Lewis-acid step before the amine is made, or use a reaction that needs no Lewis acid (for a "
+                "formyl group on an electron-rich aniline, the Vilsmeier–Haack reaction)."
             )
         need = len(sites) + _lewis_basic_carbonyls(ctx, comp) + (1 if acylation else 0)
         fix += f" Count at least {need} equiv of Lewis acid for this substrate ({len(sites)} basic N"
@@ -275,7 +282,8 @@ def acid_scavenger_short(ctx: Context):
         balance_args = dict(
             acid_per_turnover=per, released_pka=acid_pka, protons_present=protons, nucleophile_per_turnover=per
         )
-        nucleophile = Acceptor("nucleophile", site.pka, n_nuc)
+        taken = protonated_at(ctx, nuc, site)  # where the released acid puts its proton
+        nucleophile = Acceptor("nucleophile", taken.pka, n_nuc)
         acceptors = [b.acceptor() for b in bases]
         if reaches(nucleophile, n_e, acceptors, 0.9, **balance_args):
             continue  # 90 % of the stoichiometric limit is reached: nothing to report
@@ -286,10 +294,12 @@ def acid_scavenger_short(ctx: Context):
             continue
         parts = [
             f"At most {_pct(min(reach, 1.0))} conversion: the {acid_name} released by {elec.label} protonates the "
-            f"remaining {nuc.label} (pKa {site.pka:.1f}), which then cannot react."
+            f"remaining {nuc.label} (pKa {taken.pka:.1f}"
+            + (f", at its {_word(taken.kind)} N" if taken is not site else "")
+            + "), which then cannot react."
         ]
         if acid_pka > 0:
-            k = site.pka - acid_pka
+            k = taken.pka - acid_pka
             parts.append(
                 f"{acid_name[0].upper() + acid_name[1:]} (pKa {acid_pka:.1f}) is weaker than HCl but still protonates "
                 f"the amine: K ≈ 10^{k:.1f}."
@@ -298,7 +308,7 @@ def acid_scavenger_short(ctx: Context):
             ref = n_e
             strongest = max(bases, key=lambda b: b.pka)
             eq = sum(b.mmol for b in bases if b.atom == strongest.atom and b.component.index == strongest.component.index) / ref
-            if strongest.pka < site.pka - 1.5:
+            if strongest.pka < taken.pka - 1.5:
                 parts.append(
                     f"The strongest base present, {strongest.label} (pKa {strongest.pka:.1f}), is too weak to take the "
                     f"proton from the protonated {nuc.label}."
@@ -314,7 +324,7 @@ def acid_scavenger_short(ctx: Context):
         need = per + protons / max(n_e, 1e-9)
         fix = (
             f"Add at least {need + 0.1:.1f} equiv of a base at least as strong as {nuc.label}, such as "
-            f"{_base_advice(site.pka)}; or use {1 + per:.0f} equiv of {nuc.label}."
+            f"{_base_advice(taken.pka)}; or use {1 + per:.0f} equiv of {nuc.label}."
         )
         atoms = [(nuc.index, site.atom_index), (elec.index, groups[0].atoms[-1]), (elec.index, groups[0].centre)]
         yield r.finding(" ".join(parts), atoms=atoms, fix=fix, severity="warning" if assumed else "error")

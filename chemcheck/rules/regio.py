@@ -440,11 +440,19 @@ def ring_too_deactivated(ctx: Context):
             "(cross-coupling, nucleophilic aromatic substitution).",
         )
     elif basic_ar_n:
+        if sub.mol.GetAtomWithIdx(basic_ar_n[0].atom_index).GetTotalNumHs() > 0:
+            fix = "Acylate the nitrogen first (acetanilide), then run the Friedel–Crafts reaction with enough Lewis acid."
+        else:
+            fix = (
+                "This nitrogen carries no N–H and cannot be acylated: run the Friedel–Crafts step before the "
+                "amine is made, or use a reaction that needs no Lewis acid (for a formyl group, the "
+                "Vilsmeier–Haack reaction)."
+            )
         yield r.finding(
             f"The amino nitrogen of {sub.label} binds the Lewis acid; the N–Lewis acid complex is a strongly "
             "deactivating group, so the ring does not undergo the Friedel–Crafts reaction.",
             atoms=[(sub.index, basic_ar_n[0].atom_index)],
-            fix="Acylate the nitrogen first (acetanilide), then run the Friedel–Crafts reaction with enough Lewis acid.",
+            fix=fix,
         )
 
 
