@@ -229,6 +229,17 @@ def test_1h_1_2_4_triazole_is_a_weak_base():
     assert abs(macro - 2.19) <= 0.3
 
 
+def test_4h_1_2_4_triazole_is_a_stronger_base_than_the_1h_tautomer():
+    # 4-methyl-4H-1,2,4-triazole about 3.4 (from memory), above 1-methyl-1,2,4-triazole 3.2
+    # (from memory) and 1H-1,2,4-triazole 2.19 [P65]: its basic N sits 1,3 to the pyrrole-type N
+    # as in imidazole, with only the second ring N beside it
+    site, four = _first("Cn1cnnc1")
+    assert site.kind == "pyridine_type"
+    assert abs(four - 3.4) <= 0.5
+    _, one_h = _first("c1nc[nH]n1")
+    assert four > one_h
+
+
 def test_fused_ring_substituents_act_on_naphthylamines():
     _, parent = _first("Nc1cccc2ccccc12")  # 1-naphthylamine 3.92 (CRC)
     _, nitro = _first("Nc1cccc2c([N+](=O)[O-])cccc12")
@@ -342,6 +353,14 @@ def test_covalent_hydration_sites_and_hydrate():
     assert len(sites("c1cnc2ncncc2n1")) == 1
     for smiles in ("c1ccc2ncccc2c1", "Cc1ncnc2ccccc12", "c1ncc2c(n1)CCCC2", "Clc1ncc2ccccc2n1"):
         assert sites(smiles) == [], smiles
+    # a C4 carrying a carbonyl, nitrile or CF3 group is electrophilic enough to take the OH (as
+    # such groups favour the hydrates of ketones); an alkyl or aryl group at C4 blocks it
+    for smiles in ("CCOC(=O)c1ncnc2ccccc12", "NC(=O)c1ncnc2ccccc12", "FC(F)(F)c1ncnc2ccccc12"):
+        assert len(sites(smiles)) == 1, smiles
+    for smiles in ("CCc1ncnc2ccccc12", "c1ccc(-c2ncnc3ccccc23)cc1"):
+        assert sites(smiles) == [], smiles
+    ester = hydration.hydrate(Chem.MolFromSmiles("CCOC(=O)c1ncnc2ccccc12"), sites("CCOC(=O)c1ncnc2ccccc12")[0])
+    assert Chem.MolToSmiles(ester) == Chem.MolToSmiles(Chem.MolFromSmiles("CCOC(=O)C1(O)NC=Nc2ccccc21"))
     mol = Chem.MolFromSmiles("c1ccc2ncncc2c1")
     hydrated = hydration.hydrate(mol, sites("c1ccc2ncncc2c1")[0])
     assert Chem.MolToSmiles(hydrated) == Chem.MolToSmiles(Chem.MolFromSmiles("OC1NC=Nc2ccccc21"))

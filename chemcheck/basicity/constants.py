@@ -211,8 +211,9 @@ AMIDINE_ARYL_SHARE = 0.5
 HYDRATION_LOG_KN = -4.27
 # The more electron-poor the ring, the more its neutral base hydrates (pteridine hydrates far
 # more than quinazoline): log Kn rises by this much per unit by which the aromatic cation's pKa
-# lies below anhydrous quinazoline's. Our estimate of a linear free-energy relation.
-HYDRATION_SLOPE = 0.5
+# lies below anhydrous quinazoline's. Our estimate of a linear free-energy relation (0.5 until
+# the fifth round; 0.8 once C4 carrying an electron-withdrawing group could hydrate too).
+HYDRATION_SLOPE = 0.8
 # Per carbon branch beyond the first on each alpha carbon, taken off the Taft value: a branched
 # ammonium ion is less well solvated, which the sigma* of the extra alkyl groups does not see.
 # Primary amines: in water alpha-branching adds nothing (ethylamine 10.65, isopropylamine 10.63,

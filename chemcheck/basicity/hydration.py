@@ -55,15 +55,34 @@ def _plain_amidine_carbon(cb: Chem.Atom, ring: set[int]) -> bool:
     return True
 
 
+def _takes_water(c: Chem.Atom, ring: set[int]) -> bool:
+    """The ring carbon can take the OH: it carries H, or an electron-withdrawing carbon group
+    (carbonyl, nitrile, CX3) that makes it more electrophilic, as such groups favour the
+    hydrates of aldehydes and ketones (chloral, trifluoroacetone, alpha-keto esters)."""
+    if c.GetTotalNumHs(includeNeighbors=True) == 1:
+        return True
+    if c.GetTotalNumHs(includeNeighbors=True) != 0:
+        return False
+    out = [x for x in c.GetNeighbors() if x.GetIdx() not in ring]
+    if len(out) != 1 or out[0].GetAtomicNum() != 6 or out[0].GetIsAromatic():
+        return False
+    x = out[0]
+    if any(b.GetBondType() in (Chem.BondType.DOUBLE, Chem.BondType.TRIPLE) and b.GetOtherAtom(x).GetAtomicNum() in (7, 8)
+           for b in x.GetBonds()):
+        return True
+    return sum(1 for y in x.GetNeighbors() if y.GetAtomicNum() in (9, 17)) >= 3
+
+
 def hydration_sites(mol: Chem.Mol) -> list[HydrationSite]:
     """Ring C-H positions that hydrate in the cation (see the module docstring)."""
     info = mol.GetRingInfo()
     out = []
     for c in mol.GetAtoms():
-        if not (c.GetAtomicNum() == 6 and c.GetIsAromatic() and c.GetTotalNumHs(includeNeighbors=True) == 1
-                and info.NumAtomRings(c.GetIdx()) == 1):
+        if not (c.GetAtomicNum() == 6 and c.GetIsAromatic() and info.NumAtomRings(c.GetIdx()) == 1):
             continue
         ring = next(r for r in info.AtomRings() if c.GetIdx() in r)
+        if not _takes_water(c, set(ring)):
+            continue
         if len(ring) != 6 or not all(mol.GetAtomWithIdx(i).GetIsAromatic() for i in ring):
             continue
         ring_set = set(ring)

@@ -750,8 +750,12 @@ AZOLE_PARENTS: dict[str, tuple[float, str]] = {
     "cprc": (2.19, "1,2,4-triazole"),
     "ccrp": (1.17, "1,2,3-triazole"),
     "cpcr": (1.0, "1,2,4-triazole (N2)"),  # our estimate: must lie below the macroscopic 2.19, which is N4
-    "pcrc": (2.2, "1,2,4-triazole"),
-    "crpc": (2.2, "1,2,4-triazole"),
+    # N1 of a 4-substituted 4H-1,2,4-triazole: an imidazole-type N with a ring N beside it. Our
+    # estimate: imidazole less the cost of the 1,3-aza of 1H-1,2,4-triazole (6.95 - 2.19) scaled
+    # by the six-ring ratio of an ortho to a meta aza N (pyridazine 2.33, pyrimidine 1.30,
+    # pyridine 5.25 [P65]) gives 3.4 for the ring; per N, as the two equivalent N of
+    # 4-methyl-1,2,4-triazole (about 3.4 macroscopic, from memory) add log10 2.
+    "crcp": (3.1, "4H-1,2,4-triazole"),
 }
 _AZOLE_BENZO = -1.35  # benzimidazole 5.53 against imidazole 6.95 [P65]
 _AZOLE_N_SUBST = {"alkyl": 0.1, "aryl": -1.85, "acyl": -3.4, "sulfonyl": -4.0, "vinyl": -1.3}
