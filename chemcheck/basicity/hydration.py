@@ -2,7 +2,9 @@
 
 Water adds across the C=N bond of a ring C-H that lies next to a ring fusion atom and whose
 ring N is followed by an N-C=N unit (C4 of quinazoline, C4 of pteridine): the hydrated cation is
-a cyclic amidinium and far more basic than the aromatic one. The measured (equilibrium) pKa is
+a cyclic amidinium and far more basic than the aromatic one. A carbon there that carries a
+carbonyl, nitrile or CX3 group instead of H takes the water as well (such groups favour the
+hydrates of aldehydes and ketones); an alkyl or aryl group blocks it. The measured (equilibrium) pKa is
 then
 
     pKa = log10((10**pKa_anhydrous + Kn * 10**pKa_hydrate) / (1 + Kn))
