@@ -460,3 +460,15 @@ def test_a_sulfinyl_group_withdraws_less_than_a_sulfonyl_group():
     _, sulfinyl = _first("CS(=O)c1cccnc1")
     _, sulfonyl = _first("CS(=O)(=O)c1cccnc1")
     assert sulfinyl > sulfonyl + 0.3
+
+
+def test_an_amino_group_at_c2_levels_the_effect_of_a_fused_ring():
+    # 2-aminobenzimidazole 7.51 against benzimidazole 5.53, 2-aminoimidazole 8.46 against
+    # imidazole 6.95 (from memory; P65 for the parents): the guanidinium-like cation carries its
+    # charge largely outside the ring, and the benzo ring costs less than in the parents
+    _, amino_benzo = _first("Nc1nc2ccccc2[nH]1")
+    _, benzo = _first("c1nc2ccccc2[nH]1")
+    _, amino = _first("Nc1ncc[nH]1")
+    _, parent = _first("c1nc[nH]c1")
+    assert abs(amino_benzo - 7.51) <= 0.5
+    assert amino - amino_benzo < parent - benzo - 0.3

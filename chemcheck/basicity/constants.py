@@ -241,3 +241,9 @@ AZINE_PARA_SIGMA: dict[str, float] = {"SR": -0.15}
 BETWEEN_AZA: dict[str, float] = {
     "OMe": 1.6, "SR": 0.8, "F": 1.4, "Cl": 1.4, "Br": 1.4, "I": 1.4, "CF3": 1.4, "CCl3": 1.4,
 }
+# Share of the fused-ring term (benzo fusion and the substituents and aza atoms of the fused
+# ring) that acts on an azole N when an amino group sits on the carbon between that N and the
+# ring's other heteroatom: the cation is guanidinium-like and keeps much of its charge on the
+# amino N. 2-aminobenzimidazole 7.51 and 2-aminoimidazole 8.46 (from memory) put the benzo term
+# at about 0.6 of its value in the parents (benzimidazole 5.53, imidazole 6.95 [P65]). Our estimate.
+AZOLE_AMIDINE_DONOR_SHARE = 0.6

@@ -854,11 +854,31 @@ def azine(mol: Chem.Mol, n_idx: int) -> tuple[float, str]:
     # benzo (or other aromatic) fusion on the ring's carbons
     fused_atoms = [i for i in ring5 if mol.GetRingInfo().NumAtomRings(i) > 1 and mol.GetAtomWithIdx(i).GetAtomicNum() == 6]
     if len(fused_atoms) >= 2:
-        pka += _AZOLE_BENZO
-        sigma += _fused_aza_sigma(mol, ring5, n_idx)
-        # substituents on the fused ring (5-nitrobenzimidazoles), as for quinolines
-        sigma += _fused_ring_sigma(mol, ring5, n_idx)
+        fused = _AZOLE_BENZO - K.AZOLE_RHO * (_fused_aza_sigma(mol, ring5, n_idx) + _fused_ring_sigma(mol, ring5, n_idx))
+        # substituents on the fused ring (5-nitrobenzimidazoles) count as for quinolines; with
+        # an amino group on the carbon between the basic N and the ring's other heteroatom the
+        # cation is a guanidinium-like ion whose charge sits largely outside the ring, and the
+        # fused ring acts with a share of its effect (constants.AZOLE_AMIDINE_DONOR_SHARE)
+        if _amidine_carbon_donor(mol, ring5, n_idx):
+            fused *= K.AZOLE_AMIDINE_DONOR_SHARE
+        pka += fused
     return pka - K.AZOLE_RHO * sigma, f"ring class ({label}) with substituent terms"
+
+
+def _amidine_carbon_donor(mol: Chem.Mol, ring5: list[int], n_idx: int) -> bool:
+    """An amino group on a ring carbon bonded to the basic N and to the ring's other heteroatom
+    (C2 of a 2-aminobenzimidazole, a 2-aminobenzoxazole or an 8-aminopurine)."""
+    ring_set = set(ring5)
+    for c in mol.GetAtomWithIdx(n_idx).GetNeighbors():
+        if c.GetIdx() not in ring_set or c.GetAtomicNum() != 6:
+            continue
+        if not any(y.GetIdx() in ring_set and y.GetIdx() != n_idx and y.GetAtomicNum() in (7, 8, 16)
+                   for y in c.GetNeighbors()):
+            continue
+        for x in c.GetNeighbors():
+            if x.GetIdx() not in ring_set and classify_substituent(mol, c, x, ring_set) in ("NH2", "NHR", "NR2"):
+                return True
+    return False
 
 
 def _azole_n_substituent(mol, ring_n: Chem.Atom, x: Chem.Atom) -> float:
