@@ -472,3 +472,13 @@ def test_an_amino_group_at_c2_levels_the_effect_of_a_fused_ring():
     _, parent = _first("c1nc[nH]c1")
     assert abs(amino_benzo - 7.51) <= 0.5
     assert amino - amino_benzo < parent - benzo - 0.3
+
+
+def test_an_amino_group_beside_the_n_of_a_quinoline_turns_the_benzo_ring_into_a_help():
+    # 2-aminoquinoline 7.34 above 2-aminopyridine 6.86, while quinoline 4.90 lies below
+    # pyridine 5.25 (CRC, from memory)
+    _, amino_quinoline = _first("Nc1ccc2ccccc2n1")
+    _, amino_pyridine = _first("Nc1ccccn1")
+    _, quinoline = _first("c1ccc2ncccc2c1")
+    assert abs(amino_quinoline - 7.34) <= 0.3
+    assert amino_quinoline > amino_pyridine > quinoline

@@ -247,3 +247,8 @@ BETWEEN_AZA: dict[str, float] = {
 # amino N. 2-aminobenzimidazole 7.51 and 2-aminoimidazole 8.46 (from memory) put the benzo term
 # at about 0.6 of its value in the parents (benzimidazole 5.53, imidazole 6.95 [P65]). Our estimate.
 AZOLE_AMIDINE_DONOR_SHARE = 0.6
+# Added per fused ring next to the basic N when an amino group sits on the N's other side: the
+# amidinium-like cation is conjugated with the fused ring and its N-H is no longer hindered by
+# the peri C-H. 2-aminoquinoline 7.34 against 2-aminopyridine 6.86 while quinoline 4.90 lies
+# below pyridine 5.25 (CRC, from memory): 0.48 + 0.35.
+DONOR_FUSED_ORTHO = 0.8
