@@ -105,11 +105,15 @@ TAFT_EWG_SCALE = 1.2
 ALKYL_SIGMA_STAR = -0.10  # the contribution of one alkyl carbon on the alpha carbon (sigma*(Et))
 
 # sigma* of CH2-Z for heteroatom groups Z [PDS Taft table]; additive on the alpha carbon
-# (sigma*(CH2Z) - sigma*(CH3), sigma*(CH3) = 0).
+# (sigma*(CH2Z) - sigma*(CH3), sigma*(CH3) = 0). Acyloxy (with phosphate and sulfonate esters)
+# and S-acyl or S-phosphoryl groups from their field constants F [HLT] (OAc 0.41, SAc 0.39, from
+# memory) through sigma*(CH2Z) = F / 0.45, the ratio that links F(Cl) 0.42-0.47 to
+# sigma*(CH2Cl) 1.05. The acyl group pulls the O lone pairs away, and an acyloxy group
+# withdraws clearly more than a hydroxy or alkoxy group (F 0.33 and 0.29 [HLT], from memory).
 SIGMA_STAR_Z: dict[str, float] = {
     "F": 1.10, "Cl": 1.05, "Br": 1.00, "I": 0.85,
-    "OH": 0.555, "OR": 0.52, "OAr": 0.85, "OC(=O)": 0.66, "O-": -0.10,
-    "SR": 0.62, "SH": 0.62, "S(=O)": 1.20, "SO2": 1.32,
+    "OH": 0.555, "OR": 0.52, "OAr": 0.85, "OC(=O)": 0.91, "O-": -0.10,
+    "SR": 0.62, "SH": 0.62, "SC(=O)": 0.87, "S(=O)": 1.20, "SO2": 1.32,
     "NO2": 1.40, "amine": 0.40, "amide_n": 0.40, "aryl_n": 0.60, "ammonium": 2.00,
     "quaternary": 1.90, "azide": 1.00, "heteroaryl_n": 0.90, "imine_n": 0.60, "sulfonamide_n": 0.80,
     "C=O ketone": 0.60, "C=O ester": 0.71, "C=O amide": 0.50, "C=O acid": 0.80,

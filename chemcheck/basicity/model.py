@@ -75,6 +75,9 @@ def _hetero_key(mol: Chem.Mol, y: Chem.Atom, parent: Chem.Atom) -> str | None:
             return "SO2"
         if n_oxo == 1:
             return "S(=O)"
+        others = [n for n in y.GetNeighbors() if n.GetIdx() != parent.GetIdx()]
+        if any((n.GetAtomicNum() == 6 and _carbonyl_kind(mol, n)) or n.GetAtomicNum() == 15 for n in others):
+            return "SC(=O)"  # a thioester or phosphorothioate S: its lone pairs go to the acceptor
         return "SH" if y.GetTotalNumHs() else "SR"
     if z == 7:
         if y.GetFormalCharge() > 0:
