@@ -245,10 +245,11 @@ AZINE_PARA_SIGMA: dict[str, float] = {"SR": -0.15}
 BETWEEN_AZA: dict[str, float] = {
     "OMe": 1.6, "SR": 0.8, "F": 1.4, "Cl": 1.4, "Br": 1.4, "I": 1.4, "CF3": 1.4, "CCl3": 1.4,
 }
+# --- fifth round (docs/basicity.md) -----------------------------------------------------
 # Share of the fused-ring term (benzo fusion and the substituents and aza atoms of the fused
 # ring) that acts on an azole N when an amino group sits on the carbon between that N and the
 # ring's other heteroatom: the cation is guanidinium-like and keeps much of its charge on the
-# amino N. 2-aminobenzimidazole 7.51 and 2-aminoimidazole 8.46 (from memory) put the benzo term
+# amino N. 2-aminobenzimidazole about 7.5 and 2-aminoimidazole about 8.5 (from memory) put the benzo term
 # at about 0.6 of its value in the parents (benzimidazole 5.53, imidazole 6.95 [P65]). Our estimate.
 AZOLE_AMIDINE_DONOR_SHARE = 0.6
 # Added per fused ring next to the basic N when an amino group sits on the N's other side: the
@@ -256,3 +257,7 @@ AZOLE_AMIDINE_DONOR_SHARE = 0.6
 # the peri C-H. 2-aminoquinoline 7.34 against 2-aminopyridine 6.86 while quinoline 4.90 lies
 # below pyridine 5.25 (CRC, from memory): 0.48 + 0.35.
 DONOR_FUSED_ORTHO = 0.8
+# Per carbon on the alpha carbons of the two N-alkyl groups of an N,N-dialkylaniline, added to
+# its basicity (steric inhibition of resonance of the NR2 group, model.aniline). Our estimate
+# from N,N-diethylaniline 6.57 against N,N-dimethylaniline 5.07 [CRC], less what sigma* gives.
+ANILINE_DIALKYL_CROWD = 0.3
