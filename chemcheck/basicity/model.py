@@ -822,9 +822,12 @@ def azine(mol: Chem.Mol, n_idx: int) -> tuple[float, str]:
             pka -= K.THIRD_AMINO * (amino - 2)
         if not strong_donor:
             pka += _peri(mol, ring6, n_idx)
-        elif any(kind == "ortho" and term > 0 for _i, kind, term in donors):
+        elif any(kind == "ortho" and term > 0 for _i, kind, term in donors) and not any(
+            g.GetIsAromatic() for g in _peri_groups(mol, ring6, n_idx)
+        ):
             # with an amino group beside the N, a fused ring beside it on the other side adds to
-            # the basicity (2-aminoquinoline, 2-aminoquinazoline): constants.DONOR_FUSED_ORTHO
+            # the basicity (2-aminoquinoline, 2-aminoquinazoline): constants.DONOR_FUSED_ORTHO;
+            # not when a further ring crowds the N from the peri position (benzo[h]quinoline)
             pka += K.DONOR_FUSED_ORTHO * sum(1 for d, key in subs if d == 1 and key == "fused")
         return pka + ortho - K.PYRIDINE["rho"] * sigma, f"Hammett equation, pyridine-type N (sum sigma {sigma:+.2f})"
     ring5 = _ring_of(mol, n_idx, 5)
