@@ -504,3 +504,46 @@ def test_larger_n_alkyl_groups_turn_a_dialkylamino_group_out_of_the_ring():
     _, tbu = _first("CN(c1ccccc1)C(C)(C)C")
     assert dma + 0.3 < mixed < dea - 0.3
     assert tbu > mixed + 0.5
+
+
+def test_a_para_nitro_group_on_a_pyridine_acts_by_its_field_effect():
+    # 4-nitropyridine 1.61 (CRC, from memory); the field constant F 0.65 of the nitro group
+    # [HLT] fits it, sigma_m 0.71 puts it half a unit too low
+    from chemcheck.basicity import model
+
+    mol = Chem.MolFromSmiles("O=[N+]([O-])c1ccncc1")
+    pka, _ = model.azine(mol, 6)
+    assert abs(pka - 1.61) <= 0.3
+
+
+def test_a_donor_meta_to_the_n_adds_little_beside_an_amino_group_conjugated_with_it():
+    # 3,4-diaminopyridine 9.08 against 4-aminopyridine 9.17, 2,5-diaminopyridine 6.48 against
+    # 2-aminopyridine 6.86 (from memory), while 3-aminopyridine (6.04) lies 0.8 above pyridine
+    _, d34 = _first("Nc1ccncc1N")
+    _, d25 = _first("Nc1ccc(N)nc1")
+    _, amino3 = _first("Nc1cccnc1")
+    assert abs(d34 - 9.08) <= 0.3
+    assert abs(d25 - 6.48) <= 0.4
+    assert abs(amino3 - 6.04) <= 0.2
+
+
+def test_an_amino_group_in_a_vinylogous_amide_gives_less_to_the_ring_n(monkeypatch):
+    # 4-amino-1-methyl-6-pyrimidinone: the amino lone pair is shared with the C6=O through C5
+    # (N-C=C-C=O), so it raises the basicity of N3 less than the same amino group would
+    from chemcheck.basicity import constants as K
+    from chemcheck.basicity import model
+
+    mol = Chem.MolFromSmiles("Cn1cnc(N)cc1=O")
+    with_loss, _ = model.azine(mol, 3)
+    monkeypatch.setattr(K, "DONOR_CROSS_OXO", 0.0)
+    without, _ = model.azine(mol, 3)
+    assert with_loss < without - 0.5
+
+
+def test_peri_groups_on_both_sides_squeeze_the_n_h_of_an_acridinium_ion():
+    # as for 2,8-dimethylquinoline (4.1) against 8-methylquinoline (4.6) (from memory): a
+    # second peri methyl lowers 4-methylacridine further, where a methyl group far from the N
+    # would raise it
+    _, one = _first("Cc1cccc2cc3ccccc3nc12")
+    _, two = _first("Cc1cccc2cc3cccc(C)c3nc12")
+    assert two < one - 0.3

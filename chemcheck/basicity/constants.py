@@ -261,3 +261,26 @@ DONOR_FUSED_ORTHO = 0.8
 # its basicity (steric inhibition of resonance of the NR2 group, model.aniline). Our estimate
 # from N,N-diethylaniline 6.57 against N,N-dimethylaniline 5.07 [CRC], less what sigma* gives.
 ANILINE_DIALKYL_CROWD = 0.3
+# --- sixth round (docs/basicity.md) -----------------------------------------------------
+# Field constants F [HLT] (as recalled from the table, from memory) of the pi-acceptors, for a
+# pi-acceptor para to a pyridine-type N: the N lone pair lies in the ring plane and cannot
+# conjugate with it, so the group acts by its field effect alone (model._sigma_for).
+FIELD: dict[str, float] = {
+    "NO2": 0.65, "CN": 0.51, "CHO": 0.33, "COR": 0.33, "COOR": 0.34, "COOH": 0.34, "CONH2": 0.26,
+    "SO2R": 0.53, "SOR": 0.52, "CF3": 0.38, "SO2N": 0.49, "ethynyl": 0.22, "SH": 0.30,
+}
+# A pi-donor meta to the N of a pyridine that also carries a pi-donor ortho or para to the N:
+# the conjugated donor already holds much of the cation's charge, and the meta donor's small
+# resonance share (sigma_m of NH2 -0.16 against its field constant +0.08) is lost in a crowd of
+# donors; its sigma moves this share of the way from sigma_m to its field constant F [HLT, from
+# memory]. 3,4-diaminopyridine 9.08 against 4-aminopyridine 9.17 and 2,5-diaminopyridine 6.48
+# against 2-aminopyridine 6.86 (from memory). Diazines are left out: their amino-diazine
+# cations already take the reduced rho of DIAZINE_RHO_FACTOR. Our estimate.
+DONOR_META_FIELD: dict[str, float] = {"NH2": 0.08, "NHR": 0.03, "NR2": 0.15, "OMe": 0.29, "O-": -0.26}
+DONOR_META_SHARE = 0.7
+# A pi-donor ortho or para to the site on a ring that carries a ring C=O two atoms away from it,
+# joined through a ring carbon (N-C=C-C=O, a vinylogous amide, as in 4-amino-6-pyrimidinones):
+# the donor's lone pair is partly taken by the carbonyl and it loses this share of its
+# increment (half of the cross-conjugation loss to a second ring N, DONOR_CROSS). Our estimate,
+# checked as one number against the development set.
+DONOR_CROSS_OXO = 0.5

@@ -354,10 +354,12 @@ def _ordered_positions(ring: list[int], start: int) -> dict[int, int]:
 def _sigma_for(key: str, position: int, para_acceptor_minus: bool | None) -> float:
     """sigma of a ring substituent at ring distance 2 (meta) or 3 (para). For a para pi-acceptor
     ``para_acceptor_minus`` picks sigma_p- (True: anilines, whose lone pair conjugates with it),
-    sigma_p (False), or sigma_m (None: a pyridine-type N, whose lone pair lies in the ring plane
-    and cannot conjugate with the acceptor; the acceptor then acts by its field effect. It fits
-    4-cyanopyridine 1.90, 4-acetylpyridine 3.51, isonicotinamide 3.61 and methyl isonicotinate
-    3.26, CRC values from memory, which sigma_p puts 0.5-1.4 units too low)."""
+    sigma_p (False), or its field constant F [HLT] (None: a pyridine-type N, whose lone pair
+    lies in the ring plane and cannot conjugate with the acceptor; the acceptor then acts by its
+    field effect alone. It fits 4-nitropyridine 1.61, 4-cyanopyridine 1.90, 4-acetylpyridine
+    3.51, isonicotinamide 3.61 and methyl isonicotinate 3.26, CRC values from memory, which
+    sigma_p puts 0.5-1.4 units too low; sigma_m, used until the sixth round, put
+    4-nitropyridine and 4-acetylpyridine 0.5 too low)."""
     sm, sp, spm = K.HAMMETT.get(key, (0.0, 0.0, 0.0))
     if position == 2:
         return sm
@@ -368,7 +370,7 @@ def _sigma_for(key: str, position: int, para_acceptor_minus: bool | None) -> flo
             if para_acceptor_minus:
                 return spm
             if para_acceptor_minus is None:
-                return sm
+                return K.FIELD.get(key, sm)
         return sp
     return 0.0
 
@@ -490,13 +492,21 @@ def _hammett_sum(
     para_minus: bool | None,
     five_ring: bool = False,
     donors: list | None = None,
+    beside_donor: bool = False,
 ) -> tuple[float, float]:
     """(sum of ortho increments, sum of sigma) of a ring's substituents seen from ``centre``.
 
     With ``donors`` given, each pi-donor ortho or para to the centre is also listed there as
-    (ring atom index, "ortho" or "sigma", its term) for the cross-conjugation correction."""
+    (ring atom index, "ortho" or "sigma", its term) for the cross-conjugation correction. With
+    ``beside_donor`` (pyridine-type N in a ring with no second aza N), a pi-donor meta to the
+    centre in a ring that also carries a pi-donor ortho or para to it moves towards its field
+    constant (constants.DONOR_META_SHARE)."""
     ortho = sigma = 0.0
-    for d, key, idx in _ring_substituents_at(mol, ring, centre):
+    subs = list(_ring_substituents_at(mol, ring, centre))
+    conjugated_donor = beside_donor and not five_ring and any(
+        d in (1, 3) and key in _PI_DONORS for d, key, _i in subs
+    ) and not any(key == "aza" for _d, key, _i in subs)
+    for d, key, idx in subs:
         if five_ring:
             d = {1: 1, 2: 2}.get(d, 2)
         if key == "aza":
@@ -522,6 +532,8 @@ def _hammett_sum(
                 donors.append((idx, "ortho", term))
         else:
             sg = _sigma_for(key, d, para_minus)
+            if d == 2 and conjugated_donor and key in K.DONOR_META_FIELD:
+                sg += K.DONOR_META_SHARE * (K.DONOR_META_FIELD[key] - sg)
             if d == 2 and any(mol.GetBondBetweenAtoms(a, centre) for a in _aza_beside(mol, ring, idx, centre)):
                 sg += K.ALPHA_AZA_RESONANCE * (_sigma_for(key, 3, para_minus) - sg)
             term = _twisted_sigma(mol, ring, centre, key, d, sg)
@@ -564,8 +576,9 @@ def _peri(mol: Chem.Mol, ring: list[int], site: int) -> float:
     """A group in the peri position crowds the N-H of the cation and hinders its solvation
     (8-methylquinoline and benzo[h]quinoline are weaker bases than quinoline; an 8-amino group
     also holds the N lone pair in a hydrogen bond). With a group ortho to the N on its other side
-    as well (2,8-dimethylquinoline) the N-H is squeezed between the two. K.PERI and
-    K.PERI_BUTTRESS are our estimates."""
+    as well (2,8-dimethylquinoline), or peri groups on both sides (4,5-disubstituted
+    acridines), the N-H is squeezed between the two. K.PERI and K.PERI_BUTTRESS are our
+    estimates."""
     groups = _peri_groups(mol, ring, site)
     if not groups:
         return 0.0
@@ -576,6 +589,13 @@ def _peri(mol: Chem.Mol, ring: list[int], site: int) -> float:
             continue
         if any(x.GetIdx() not in ring and x.GetAtomicNum() > 1 for x in r.GetNeighbors()):
             ortho_sub = True
+    # peri groups on both sides of the N (4,5-disubstituted acridines) squeeze it as well
+    sides = {
+        f.GetIdx() for f in n.GetNeighbors() for g in groups
+        if f.GetIdx() in ring and any(mol.GetBondBetweenAtoms(f.GetIdx(), h.GetIdx()) for h in g.GetNeighbors())
+    }
+    if len(sides) > 1:
+        ortho_sub = True
     return K.PERI + (K.PERI_BUTTRESS if ortho_sub else 0.0)
 
 
@@ -587,11 +607,14 @@ def _donor_cross(mol: Chem.Mol, ring: list[int], site: int, donors: list, rho: f
     conjugated with the other N on protonation, so it adds little to the site's basicity
     (4,6-diaminopyrimidine lies well below 2,4-diaminopyrimidine, where both donors are ortho to
     the other N; in melamine every amino group sits between two ring N and they all count). Such
-    a donor loses K.DONOR_CROSS of its ortho or para increment (our estimate, constants.py)."""
+    a donor loses K.DONOR_CROSS of its ortho or para increment (our estimate, constants.py).
+    A donor joined to a ring C=O through a ring carbon (N-C=C-C=O, a vinylogous amide) loses
+    K.DONOR_CROSS_OXO of it in the same way."""
     if not donors:
         return 0.0
     aza = [i for i in ring if i != site and is_aza(mol.GetAtomWithIdx(i))]
-    if not aza:
+    oxo = [i for d, key, i in _ring_substituents_at(mol, ring, site) if key == "oxo"]
+    if not aza and not oxo:
         return 0.0
     correction = 0.0
     for idx, kind, term in donors:
@@ -599,11 +622,25 @@ def _donor_cross(mol: Chem.Mol, ring: list[int], site: int, donors: list, rho: f
         if inc <= 0:
             continue
         pos = _ordered_positions(ring, idx)
+        if any(pos[o] == 2 and _vinylogous(mol, ring, idx, o) for o in oxo):
+            correction -= K.DONOR_CROSS_OXO * inc
+            continue
         # para to another aza N and not flanked by one (a donor between two ring N, as in
         # 2-aminopyrimidine or melamine, stays in conjugation with the site)
         if any(pos[a] == 3 for a in aza) and not any(pos[a] == 1 for a in aza):
             correction -= K.DONOR_CROSS * inc
     return correction
+
+
+def _vinylogous(mol: Chem.Mol, ring: list[int], donor: int, oxo: int) -> bool:
+    """Whether the ring atoms of a donor and of a ring C=O two atoms apart are joined through a
+    ring carbon (N-C=C-C=O, a vinylogous amide), not through a ring N."""
+    return any(
+        mol.GetAtomWithIdx(c).GetAtomicNum() == 6
+        and mol.GetBondBetweenAtoms(donor, c) is not None
+        and mol.GetBondBetweenAtoms(oxo, c) is not None
+        for c in ring
+    )
 
 
 def _fused_ring_sigma(mol: Chem.Mol, ring: list[int], site: int) -> float:
@@ -802,7 +839,7 @@ def azine(mol: Chem.Mol, n_idx: int) -> tuple[float, str]:
         donors: list = []
         ortho, sigma = _hammett_sum(
             mol, ring6, n_idx, K.ORTHO_PYRIDINE, default_ortho=-1.0, ring_hetero=0.5, para_minus=None,
-            donors=donors,
+            donors=donors, beside_donor=True,
         )
         sigma += _fused_ring_sigma(mol, ring6, n_idx)
         pka += _donor_cross(mol, ring6, n_idx, donors, K.PYRIDINE["rho"])
