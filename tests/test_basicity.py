@@ -547,3 +547,17 @@ def test_peri_groups_on_both_sides_squeeze_the_n_h_of_an_acridinium_ion():
     _, one = _first("Cc1cccc2cc3ccccc3nc12")
     _, two = _first("Cc1cccc2cc3cccc(C)c3nc12")
     assert two < one - 0.3
+
+
+def test_fluorinated_sulfur_groups_withdraw_far_more_than_their_alkyl_analogues():
+    # sigma_m / sigma_p- of SCF3 0.40 / 0.57 and SO2CF3 0.83 / 1.63 against SMe 0.15 / 0.06 and
+    # SO2Me 0.60 / 1.13 [HLT, from memory]; 4-(methylthio)aniline 4.35 (from memory): the SMe
+    # group, a weak pi-acceptor towards the aniline N, takes its sigma_p-
+    _, sme = _first("CSc1ccc(N)cc1")
+    _, sme_meta = _first("CSc1cccc(N)c1")
+    _, scf3_meta = _first("Nc1cccc(SC(F)(F)F)c1")
+    _, so2me = _first("CS(=O)(=O)c1ccc(N)cc1")
+    _, so2cf3 = _first("Nc1ccc(S(=O)(=O)C(F)(F)F)cc1")
+    assert abs(sme - 4.35) <= 0.15
+    assert scf3_meta < sme_meta - 0.5
+    assert so2cf3 < so2me - 1.0

@@ -62,6 +62,9 @@ HAMMETT: dict[str, tuple[float, float, float]] = {
     "SO2N": (0.53, 0.60, 0.94),
     "SO3-": (0.30, 0.35, 0.35),
     "SR": (0.15, 0.00, 0.06),
+    # fluorinated sulfur groups [HLT, from memory]: they used to be read as SR and SO2R
+    "SCF3": (0.40, 0.50, 0.57),
+    "SO2CF3": (0.83, 0.96, 1.63),
     "SH": (0.25, 0.15, 0.73),
     "SiR3": (-0.04, -0.07, 0.11),
     "N=N": (0.32, 0.39, 0.45),
@@ -76,6 +79,9 @@ ORTHO_ANILINE: dict[str, float] = {
     "CN": -3.6, "COOR": -2.4, "COR": -2.3, "CHO": -2.6, "COOH": -2.5, "CF3": -3.4, "Ph": -0.78,
     "SR": -1.15, "CONH2": -1.8, "NHAc": -0.9, "vinyl": -0.5, "fused": -0.68, "OPh": -1.2,
     "SO2R": -4.5, "SO2N": -4.0, "CH2X": -0.6, "CH2N": -0.2, "ethynyl": -1.6, "OAc": -1.5,
+    # our estimates, for want of measured parents: OCF3 as the acyloxy group of like sigma_m,
+    # SCF3 between SR and CF3, SO2CF3 beyond SO2R as its sigma_m is
+    "OCF3": -1.5, "SCF3": -2.3, "SO2CF3": -5.5,
 }
 ORTHO_PYRIDINE: dict[str, float] = {
     "CH3": 0.72, "alkyl": 0.70, "tBu": 0.51, "NH2": 1.61, "NHR": 1.85, "NR2": 1.7, "OMe": -1.97,
@@ -84,6 +90,8 @@ ORTHO_PYRIDINE: dict[str, float] = {
     "vinyl": -0.27, "CONH2": -3.2, "NHAc": -1.1, "CH2X": -0.4, "CH2N": -0.3, "OH": -5.0,
     "fused": -0.35, "ethynyl": -2.5, "OAc": -3.0, "SO2R": -6.0, "SO2N": -6.0,
     "SOR": -5.0,  # our estimate, below the sulfonyl group
+    # our estimates, as for the aniline increments above
+    "OCF3": -3.0, "SCF3": -4.5, "SO2CF3": -7.5,
 }
 
 # --- reaction constants ----------------------------------------------------------------------
@@ -268,6 +276,7 @@ ANILINE_DIALKYL_CROWD = 0.3
 FIELD: dict[str, float] = {
     "NO2": 0.65, "CN": 0.51, "CHO": 0.33, "COR": 0.33, "COOR": 0.34, "COOH": 0.34, "CONH2": 0.26,
     "SO2R": 0.53, "SOR": 0.52, "CF3": 0.38, "SO2N": 0.49, "ethynyl": 0.22, "SH": 0.30,
+    "SCF3": 0.36, "SO2CF3": 0.73,
 }
 # A pi-donor meta to the N of a pyridine that also carries a pi-donor ortho or para to the N:
 # the conjugated donor already holds much of the cation's charge, and the meta donor's small

@@ -23,7 +23,10 @@ def is_aza(atom: Chem.Atom) -> bool:
         atom.GetAtomicNum() == 7 and atom.GetIsAromatic() and atom.GetDegree() == 2
         and atom.GetTotalNumHs(includeNeighbors=True) == 0 and atom.GetFormalCharge() == 0
     )
-_PI_ACCEPTORS = {"NO2", "CN", "CHO", "COR", "COOR", "COOH", "CONH2", "SO2R", "SOR", "SO2N", "CF3", "ethynyl", "N=N", "SH"}
+_PI_ACCEPTORS = {
+    "NO2", "CN", "CHO", "COR", "COOR", "COOH", "CONH2", "SO2R", "SOR", "SO2N", "CF3", "ethynyl", "N=N", "SH",
+    "SO2CF3", "SCF3", "SR",
+}
 
 
 # --------------------------------------------------------------------------- aliphatic (Taft)
@@ -318,15 +321,26 @@ def classify_substituent(mol: Chem.Mol, ring_atom: Chem.Atom, x: Chem.Atom, ring
                 return "SO2N"
             if any(n.GetAtomicNum() == 8 and (n.GetFormalCharge() < 0 or n.GetTotalNumHs()) for n in x.GetNeighbors()):
                 return "SO3-"
-            return "SO2R"
+            return "SO2CF3" if _perfluoro_neighbour(x, ring_atom) else "SO2R"
         if n_oxo == 1:
             return "SOR"  # sulfinyl
-        return "SH" if x.GetTotalNumHs() else "SR"
+        if x.GetTotalNumHs():
+            return "SH"
+        return "SCF3" if _perfluoro_neighbour(x, ring_atom) else "SR"
     if z == 14:
         return "SiR3"
     if z == 5:
         return "B"
     return "H"
+
+
+def _perfluoro_neighbour(x: Chem.Atom, ring_atom: Chem.Atom) -> bool:
+    """Whether ``x`` carries a carbon with two or more fluorines (SCF3, SO2CF3, SCF2H)."""
+    return any(
+        n.GetIdx() != ring_atom.GetIdx() and n.GetAtomicNum() == 6
+        and sum(1 for m in n.GetNeighbors() if m.GetAtomicNum() == 9) >= 2
+        for n in x.GetNeighbors()
+    )
 
 
 def rings_fused_alkyl(mol, ring_atom, x, ring) -> bool:
