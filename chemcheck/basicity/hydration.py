@@ -43,15 +43,20 @@ def _in_other_aromatic_ring(mol: Chem.Mol, atom: Chem.Atom, ring: set[int]) -> b
 
 
 def _plain_amidine_carbon(cb: Chem.Atom, ring: set[int]) -> bool:
-    """C2 carries H, alkyl or aryl. With a heteroatom or a halogenated carbon there the hydrated
-    cation is too weak a base to matter (2-chloro-, 2-trifluoromethylquinazoline), and with an
-    amino or alkoxy group the aromatic ring is the stronger base (Albert: such groups suppress
-    the hydration)."""
+    """C2 carries no halogen or halogenated carbon: with one there the hydrated cation is too
+    weak a base to matter (2-chloro-, 2-trifluoromethylquinazoline). An amino, alkoxy or
+    alkylthio group at C2 is allowed: it raises the aromatic cation's pKa, and the hydration
+    constant, which falls as that pKa rises (constants.HYDRATION_SLOPE), then leaves the
+    hydrate little weight in quinazolines (Albert: such groups suppress the hydration there),
+    while the far more electron-poor pteridines still hydrate (until the sixth round such groups
+    blocked the hydration outright)."""
     for x in cb.GetNeighbors():
         if x.GetIdx() in ring:
             continue
-        if x.GetAtomicNum() != 6:
+        if x.GetAtomicNum() in (9, 17, 35, 53):
             return False
+        if x.GetAtomicNum() != 6:
+            continue
         if any(y.GetAtomicNum() in (9, 17, 35, 53) for y in x.GetNeighbors()):
             return False
     return True
