@@ -567,3 +567,12 @@ def test_fluorinated_sulfur_groups_withdraw_far_more_than_their_alkyl_analogues(
     assert abs(sme - 4.35) <= 0.15
     assert scf3_meta < sme_meta - 0.5
     assert so2cf3 < so2me - 1.0
+
+
+def test_a_dihalomethyl_group_withdraws_between_a_halomethyl_and_a_trihalomethyl_group():
+    # sigma_m CH2Cl 0.11, CHF2 0.29, CHCl2 0.31, CF3 0.43 [HLT, from memory]; CHF2 used to be read
+    # as CF3 and CHCl2 as CH2Cl
+    values = [_first(f"{g}c1cccnc1")[1] for g in ("FC", "FC(F)", "ClC(Cl)", "FC(F)(F)")]
+    assert values[0] > values[1] + 0.7
+    assert values[3] < values[1] - 0.5
+    assert abs(values[1] - values[2]) < 0.3

@@ -24,6 +24,7 @@ HAMMETT: dict[str, tuple[float, float, float]] = {
     "tBu": (-0.10, -0.20, -0.13),
     "CF3": (0.43, 0.54, 0.65),
     "CCl3": (0.40, 0.46, 0.46),
+    "CHX2": (0.30, 0.32, 0.32),  # CHF2 0.29 / 0.32, CHCl2 0.31 / 0.32 [HLT, from memory]
     "CH2X": (0.11, 0.12, 0.12),  # CH2Cl, CH2OH-type: weak acceptor
     "CH2N": (-0.03, -0.11, -0.11),
     "Ph": (0.06, -0.01, 0.02),
@@ -82,6 +83,7 @@ ORTHO_ANILINE: dict[str, float] = {
     # our estimates, for want of measured parents: OCF3 as the acyloxy group of like sigma_m,
     # SCF3 between SR and CF3, SO2CF3 beyond SO2R as its sigma_m is
     "OCF3": -1.5, "SCF3": -2.3, "SO2CF3": -5.5,
+    "CHX2": -2.4,  # CF3's increment scaled by sigma_m (0.30 against 0.43)
 }
 ORTHO_PYRIDINE: dict[str, float] = {
     "CH3": 0.72, "alkyl": 0.70, "tBu": 0.51, "NH2": 1.61, "NHR": 1.85, "NR2": 1.7, "OMe": -1.97,
@@ -92,6 +94,7 @@ ORTHO_PYRIDINE: dict[str, float] = {
     "SOR": -5.0,  # our estimate, below the sulfonyl group
     # our estimates, as for the aniline increments above
     "OCF3": -3.0, "SCF3": -4.5, "SO2CF3": -7.5,
+    "CHX2": -4.0,  # CF3's increment scaled by sigma_m (0.30 against 0.43)
 }
 
 # --- reaction constants ----------------------------------------------------------------------
@@ -251,7 +254,7 @@ AZINE_PARA_SIGMA: dict[str, float] = {"SR": -0.15}
 # 2-methylthiopyridine 3.59, 2-chloropyridine 0.72 against pyridine 5.25 (CRC). Our estimates:
 # one number for the halogens and CX3 groups, one each for alkoxy and alkylthio.
 BETWEEN_AZA: dict[str, float] = {
-    "OMe": 1.6, "SR": 0.8, "F": 1.4, "Cl": 1.4, "Br": 1.4, "I": 1.4, "CF3": 1.4, "CCl3": 1.4,
+    "OMe": 1.6, "SR": 0.8, "F": 1.4, "Cl": 1.4, "Br": 1.4, "I": 1.4, "CF3": 1.4, "CCl3": 1.4, "CHX2": 1.4,
 }
 # --- fifth round (docs/basicity.md) -----------------------------------------------------
 # Share of the fused-ring term (benzo fusion and the substituents and aza atoms of the fused

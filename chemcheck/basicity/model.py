@@ -261,10 +261,12 @@ def classify_substituent(mol: Chem.Mol, ring_atom: Chem.Atom, x: Chem.Atom, ring
                 return "vinyl"
         n_f = sum(1 for n in nbrs if n.GetAtomicNum() == 9)
         n_cl = sum(1 for n in nbrs if n.GetAtomicNum() == 17)
-        if n_f >= 2:
-            return "CF3"
+        if n_f >= 3 or (n_f == 2 and x.GetTotalNumHs() == 0):
+            return "CF3"  # CF3, CF2R (C2F5)
         if n_cl >= 3:
             return "CCl3"
+        if n_f + n_cl >= 2:
+            return "CHX2"  # CHF2, CHCl2
         if any(n.GetAtomicNum() == 7 for n in nbrs):
             return "CH2N"
         if any(n.GetAtomicNum() in (8, 9, 16, 17, 35, 53) for n in nbrs):
