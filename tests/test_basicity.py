@@ -576,3 +576,14 @@ def test_a_dihalomethyl_group_withdraws_between_a_halomethyl_and_a_trihalomethyl
     assert values[0] > values[1] + 0.7
     assert values[3] < values[1] - 0.5
     assert abs(values[1] - values[2]) < 0.3
+
+
+def test_the_group_on_the_ring_n_of_a_cyclic_amidine_counts_through_its_sigma_star():
+    # 2-imino-1-methylpyrimidine against its 1-benzyl and 1-propargyl analogues: sigma* of
+    # CH2Ph 0.215 and CH2C#CH about 0.64 [PDS Taft table] lower the amidine's basicity, as
+    # they do on the N of an open-chain amidine
+    _, methyl = _first("Cn1cccnc1=N")
+    _, benzyl = _first("N=c1ncccn1Cc1ccccc1")
+    _, propargyl = _first("C#CCn1cccnc1=N")
+    assert methyl - 0.8 < benzyl < methyl - 0.2
+    assert propargyl < benzyl - 0.5

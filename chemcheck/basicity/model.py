@@ -1080,13 +1080,21 @@ def imine(mol: Chem.Mol, n_idx: int) -> tuple[float, str]:
         c = carbon[0]
         ring = _ring_of(mol, c.GetIdx(), 6) or _ring_of(mol, c.GetIdx())
         sigma = 0.0
+        pka = 13.0
         if ring:
             for d, key in _ring_substituents(mol, ring, c.GetIdx()):
                 if key in ("aza", "ring_nR", "oxo") or key.startswith("ring_"):
                     sigma += K.IMINE_AZA if key == "aza" else 0.0
                     continue
                 sigma += _sigma_for(key, 2 if d == 1 else d, False)
-        pka = 13.0 - 4.5 * sigma
+            # the group on the ring N of the amidine (benzyl, propargyl) against the N-methyl of
+            # the parent: it is an amidine N, with the same rho* as an open-chain one
+            for rn in c.GetNeighbors():
+                if rn.GetIdx() in ring and rn.GetAtomicNum() == 7 and rn.GetDegree() == 3:
+                    for x in rn.GetNeighbors():
+                        if x.GetIdx() not in ring and x.GetAtomicNum() == 6 and not x.GetIsAromatic():
+                            pka -= K.AMIDINE_N_RHO_STAR * group_sigma_star(mol, x, rn)
+        pka -= 4.5 * sigma
         for x in n.GetNeighbors():
             if x.GetIdx() != c.GetIdx() and x.GetAtomicNum() == 6 and not x.GetIsAromatic():
                 pka += 0.05 - K.AMIDINE_N_RHO_STAR * group_sigma_star(mol, x, n)
