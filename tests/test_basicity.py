@@ -587,3 +587,15 @@ def test_the_group_on_the_ring_n_of_a_cyclic_amidine_counts_through_its_sigma_st
     _, propargyl = _first("C#CCn1cccnc1=N")
     assert methyl - 0.8 < benzyl < methyl - 0.2
     assert propargyl < benzyl - 0.5
+
+
+def test_the_ring_n_of_a_picolyl_group_acts_through_the_benzylamine_hammett_terms():
+    # 2-picolylamine 8.79 against benzylamine 9.34 (CRC, from memory); the ring N acts as a
+    # substituent with its sigma (meta 0.65, para 0.78) through rho 1.06 of benzylammonium ions
+    # [PDS], so the 4-picolyl group pulls more than the 3-picolyl group
+    _, benzyl = _first("NCc1ccccc1")
+    _, pic2 = _first("NCc1ccccn1")
+    _, pic3 = _first("NCc1cccnc1")
+    _, pic4 = _first("NCc1ccncc1")
+    assert abs(pic2 - 8.79) <= 0.2
+    assert pic4 < pic3 < benzyl - 0.4

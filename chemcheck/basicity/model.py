@@ -137,10 +137,12 @@ def _term(mol, y: Chem.Atom, a: Chem.Atom, bond, depth: int, path) -> float:
                 1 for ring in mol.GetRingInfo().AtomRings() if y.GetIdx() in ring
                 for i in ring if mol.GetAtomWithIdx(i).GetAtomicNum() == 7 and mol.GetAtomWithIdx(i).GetIsAromatic()
             )
+            # a ring of its own (not fused): its aza atoms go with the ring's Hammett sum
+            own = mol.GetRingInfo().NumAtomRings(y.GetIdx()) == 1 and _ring_of(mol, y.GetIdx(), 6) is not None
             return (
                 K.SIGMA_STAR_Z["aryl"]
-                + K.SIGMA_STAR_Z["aza_in_aryl"] * min(aza, 2)
-                + K.BENZYL_RING_FACTOR * _benzyl_ring_sigma(mol, y)
+                + (0.0 if own else K.SIGMA_STAR_Z["aza_in_aryl"] * min(aza, 2))
+                + K.BENZYL_RING_FACTOR * _benzyl_ring_sigma(mol, y, with_aza=own)
             )
         if bond.GetBondType() == Chem.BondType.TRIPLE:
             return K.SIGMA_STAR_Z["C#N"] if any(n.GetAtomicNum() == 7 for n in y.GetNeighbors()) else K.SIGMA_STAR_Z["C#C"]
@@ -166,13 +168,17 @@ def _term(mol, y: Chem.Atom, a: Chem.Atom, bond, depth: int, path) -> float:
     return K.SIGMA_STAR_Z.get(key, 0.0) if key else 0.0
 
 
-def _benzyl_ring_sigma(mol: Chem.Mol, ipso: Chem.Atom) -> float:
-    """Hammett sum of the substituents on the ring of a benzylic carbon (ortho taken as meta)."""
+def _benzyl_ring_sigma(mol: Chem.Mol, ipso: Chem.Atom, with_aza: bool = False) -> float:
+    """Hammett sum of the substituents on the ring of a benzylic carbon (ortho taken as meta);
+    with ``with_aza``, the ring's aza atoms as well (constants.AZA_SIGMA, ortho taken as meta: picolyl groups)."""
     ring = _ring_of(mol, ipso.GetIdx(), 6)
     if ring is None:
         return 0.0
     total = 0.0
     for d, key in _ring_substituents(mol, ring, ipso.GetIdx()):
+        if key == "aza" and with_aza:
+            total += K.AZA_SIGMA["para" if d == 3 else "meta"]
+            continue
         if key in ("aza", "fused") or key.startswith("ring_"):
             continue
         total += _sigma_for(key, 2 if d == 1 else d, False)
