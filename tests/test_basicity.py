@@ -599,3 +599,15 @@ def test_the_ring_n_of_a_picolyl_group_acts_through_the_benzylamine_hammett_term
     _, pic4 = _first("NCc1ccncc1")
     assert abs(pic2 - 8.79) <= 0.2
     assert pic4 < pic3 < benzyl - 0.4
+
+
+def test_an_ortho_group_twists_an_nn_dimethylamino_group_and_acts_by_its_field_effect():
+    # methyl anthranilate 2.23 against aniline 4.60 (from memory): the ortho ester holds the
+    # N-H in a hydrogen bond and takes the lone pair. Beside an NMe2 group it has no N-H to hold
+    # and turns the NMe2 out of the ring plane (Wepster), so it costs far less (as the ortho
+    # methyl group of N,N-dimethyl-o-toluidine, 5.86, raises N,N-dimethylaniline, 5.07, CRC)
+    _, dma = _first("CN(C)c1ccccc1")
+    _, ester = _first("COC(=O)c1ccccc1N(C)C")
+    _, anthranilate = _first("COC(=O)c1ccccc1N")
+    assert dma - ester < 1.0
+    assert anthranilate < ester - 1.5

@@ -273,13 +273,16 @@ DONOR_FUSED_ORTHO = 0.8
 # from N,N-diethylaniline 6.57 against N,N-dimethylaniline 5.07 [CRC], less what sigma* gives.
 ANILINE_DIALKYL_CROWD = 0.3
 # --- sixth round (docs/basicity.md) -----------------------------------------------------
-# Field constants F [HLT] (as recalled from the table, from memory) of the pi-acceptors, for a
-# pi-acceptor para to a pyridine-type N: the N lone pair lies in the ring plane and cannot
-# conjugate with it, so the group acts by its field effect alone (model._sigma_for).
+# Field constants F [HLT] (as recalled from the table, from memory). Used where a group can act
+# by its field effect alone: a pi-acceptor para to a pyridine-type N, whose lone pair lies in
+# the ring plane and cannot conjugate with it (model._sigma_for), and a group ortho to an
+# N,N-dialkylamino group, which it turns out of the ring plane (model._twist).
 FIELD: dict[str, float] = {
     "NO2": 0.65, "CN": 0.51, "CHO": 0.33, "COR": 0.33, "COOR": 0.34, "COOH": 0.34, "CONH2": 0.26,
     "SO2R": 0.53, "SOR": 0.52, "CF3": 0.38, "SO2N": 0.49, "ethynyl": 0.22, "SH": 0.30,
     "SCF3": 0.36, "SO2CF3": 0.73,
+    "F": 0.45, "Cl": 0.42, "Br": 0.45, "I": 0.42, "OMe": 0.29, "OH": 0.33, "NH2": 0.08,
+    "NR2": 0.15, "SR": 0.23, "Ph": 0.12,
 }
 # A pi-donor meta to the N of a pyridine that also carries a pi-donor ortho or para to the N:
 # the conjugated donor already holds much of the cation's charge, and the meta donor's small

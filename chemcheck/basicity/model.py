@@ -749,7 +749,11 @@ def _twist(mol: Chem.Mol, n: Chem.Atom, ipso: Chem.Atom, ring: list[int]) -> flo
     """Steric inhibition of resonance: an N,N-dialkylamino group with an alkyl group ortho to it
     (or an N-alkylamino group between two) turns out of the ring plane, its lone pair no longer
     delocalised, and the amine becomes more basic instead of less. Replaces the ortho-alkyl
-    increment of primary anilines by K.ORTHO_ALKYL_TWIST per crowding alkyl group."""
+    increment of primary anilines by K.ORTHO_ALKYL_TWIST per crowding alkyl group. Any other
+    group ortho to an NR2 group twists it as well; the increment of primary anilines for that
+    group (which holds the hydrogen bond to an N-H and the resonance with the N lone pair) gives
+    way to the twist and the group's field effect, K.ORTHO_ALKYL_TWIST - rho * F (HLT field
+    constants, constants.FIELD)."""
     n_alkyl = sum(1 for x in n.GetNeighbors() if x.GetIdx() != ipso.GetIdx() and x.GetAtomicNum() == 6 and not x.GetIsAromatic())
     ortho_alkyl = [
         x for r in ipso.GetNeighbors() if r.GetIdx() in ring
@@ -757,10 +761,24 @@ def _twist(mol: Chem.Mol, n: Chem.Atom, ipso: Chem.Atom, ring: list[int]) -> flo
         if x.GetIdx() not in ring and x.GetAtomicNum() == 6 and not x.GetIsAromatic()
         and not any(b.GetBondTypeAsDouble() > 1 for b in x.GetBonds())
     ]
+    other = 0.0
+    if n_alkyl == 2:
+        # any other ortho group crowds an NR2 group the same way; with no N-H left to hold it
+        # and no lone pair in conjugation, the group acts by its field effect alone
+        ring_set = set(ring)
+        for r in ipso.GetNeighbors():
+            if r.GetIdx() not in ring_set:
+                continue
+            for x in r.GetNeighbors():
+                if x.GetIdx() in ring_set or x.GetAtomicNum() == 1 or x in ortho_alkyl:
+                    continue
+                key = classify_substituent(mol, r, x, ring_set)
+                if key in K.FIELD and key in K.ORTHO_ANILINE:
+                    other += K.ORTHO_ALKYL_TWIST - K.ANILINE_N_ALKYL_RHO * K.FIELD[key] - K.ORTHO_ANILINE[key]
     if not ortho_alkyl or n_alkyl == 0 or (n_alkyl == 1 and len(ortho_alkyl) < 2):
-        return 0.0
+        return other
     per = K.ORTHO_ALKYL_TWIST - K.ORTHO_ANILINE["CH3"]  # undo the primary-aniline increment
-    return per * len(ortho_alkyl)
+    return per * len(ortho_alkyl) + other
 
 
 def _aryl_terms(mol: Chem.Mol, ipso: Chem.Atom, ring: list[int]) -> tuple[float, float]:
