@@ -52,8 +52,12 @@ def evaluate(rows: list[dict], class_key=lambda r: r["site_class"]):
             missing += 1
             pred = 0.0  # counted as predicting "not basic"
         err = pred - exp
-        errors[class_key(r)].append(err)
+        cls = class_key(r)
+        errors[cls].append(err)
         errors["all"].append(err)
+        for family in ("aniline", "aliphatic"):  # the classes: anilines, aliphatic amines
+            if cls.startswith(family + "_"):
+                errors[family + " (all)"].append(err)
         worst.append((abs(err), r["smiles"], exp, pred, class_key(r)))
     summary = {}
     for cls, errs in sorted(errors.items(), key=lambda kv: -len(kv[1])):

@@ -119,19 +119,20 @@ def _accuracy(path, cls=None):
 
 
 # Regression guards just above the accuracy measured when the methods landed
-# (docs/basicity.md); the goals of the basicity issue (overall 0.5, pyridines 0.3) are not yet
-# met; primary anilines (0.24) meet theirs.
+# (docs/basicity.md). Of the basicity issue's goals, overall (0.5) and anilines (0.3) are met;
+# pyridines (0.3) are not yet (0.38).
 @pytest.mark.parametrize(
     "classes,limit",
     [
-        (None, 0.54),
-        (("aniline_primary",), 0.30),
-        (("azine_polyaza",), 0.75),
-        (("other_heteroaromatic",), 0.63),
-        (("aliphatic_primary", "aliphatic_secondary", "aliphatic_tertiary"), 0.41),
-        (("pyridine",), 0.46),
-        (("imidazole",), 0.56),
-        (("amidine_guanidine",), 0.48),
+        (None, 0.49),
+        (("aniline_primary",), 0.25),
+        (("aniline_primary", "aniline_secondary", "aniline_tertiary"), 0.32),
+        (("azine_polyaza",), 0.66),
+        (("other_heteroaromatic",), 0.56),
+        (("aliphatic_primary", "aliphatic_secondary", "aliphatic_tertiary"), 0.40),
+        (("pyridine",), 0.41),
+        (("imidazole",), 0.53),
+        (("amidine_guanidine",), 0.47),
     ],
 )
 def test_accuracy_on_the_iupac_dataset(pka_dataset_dir, classes, limit):
@@ -142,7 +143,7 @@ def test_accuracy_on_the_iupac_dataset(pka_dataset_dir, classes, limit):
 
 def test_multisite_accuracy(pka_dataset_dir):
     mae, n = _accuracy(pka_dataset_dir / "amine_pka_multisite_dev.csv")
-    assert n > 200 and mae <= 0.60
+    assert n > 200 and mae <= 0.55
 
 
 @pytest.mark.parametrize(
