@@ -931,6 +931,11 @@ def azine(mol: Chem.Mol, n_idx: int) -> tuple[float, str]:
             for y in x.GetNeighbors()
         )
     }
+    pyrrole_n = any(
+        mol.GetAtomWithIdx(i).GetAtomicNum() == 7 and i != n_idx
+        and (mol.GetAtomWithIdx(i).GetDegree() == 3 or mol.GetAtomWithIdx(i).GetTotalNumHs() > 0)
+        for i in ring5
+    )
     for idx in ring5:
         if idx == n_idx:
             continue
@@ -944,8 +949,14 @@ def azine(mol: Chem.Mol, n_idx: int) -> tuple[float, str]:
             key = classify_substituent(mol, atom, x, ring_set)
             if key == "fused":
                 continue
-            sm, sp, _spm = K.HAMMETT.get(key, (0.0, 0.0, 0.0))
+            sm, sp, spm = K.HAMMETT.get(key, (0.0, 0.0, 0.0))
             if idx in adjacent:
+                if key in _PI_ACCEPTORS and key not in ("SR", "SH") and pyrrole_n:
+                    # conjugated with the lone pair of the ring's pyrrole-type N through the
+                    # ring C=C (N1-C5=C4-NO2 seen from N3): a push-pull unit that the cation
+                    # loses, so the acceptor acts with sigma_p- (4-nitroimidazole about 0,
+                    # against 2.5 for the 5-nitroimidazole metronidazole, from memory)
+                    sp = spm
                 sigma += sm + K.AZOLE_ADJACENT_RESONANCE * (sp - sm)
             else:
                 sigma += sm
