@@ -621,3 +621,15 @@ def test_a_nitro_group_beside_the_basic_n_of_an_imidazole_is_in_push_pull_with_t
     _, metronidazole = _first("Cc1ncc([N+](=O)[O-])n1CCO")
     assert abs(nitro4 - (-0.05)) <= 0.8
     assert abs(metronidazole - 2.55) <= 0.4
+
+
+def test_larger_alkyl_groups_beside_the_basic_n_of_a_pyrazole_gain_nothing():
+    # 1-methylpyrazole 2.06 (Perrin, as recalled); the N-H of the pyrazolium ion sits next to
+    # the N-alkyl group, and a bulkier group hinders its solvation as much as its sigma* helps
+    _, methyl = _first("Cn1cccn1")
+    _, ethyl = _first("CCn1cccn1")
+    _, tbu = _first("CC(C)(C)n1cccn1")
+    _, ester = _first("CCOC(=O)Cn1cccn1")
+    assert methyl == pytest.approx(2.06, abs=0.01)
+    assert abs(ethyl - methyl) <= 0.3 and abs(tbu - methyl) <= 0.3
+    assert ester < methyl - 0.5

@@ -944,7 +944,7 @@ def azine(mol: Chem.Mol, n_idx: int) -> tuple[float, str]:
             if x.GetIdx() in ring_set:
                 continue
             if atom.GetAtomicNum() == 7:
-                pka += _azole_n_substituent(mol, atom, x)
+                pka += _azole_n_substituent(mol, atom, x, beside=mol.GetBondBetweenAtoms(idx, n_idx) is not None)
                 continue
             key = classify_substituent(mol, atom, x, ring_set)
             if key == "fused":
@@ -990,7 +990,12 @@ def _amidine_carbon_donor(mol: Chem.Mol, ring5: list[int], n_idx: int) -> bool:
     return False
 
 
-def _azole_n_substituent(mol, ring_n: Chem.Atom, x: Chem.Atom) -> float:
+def _azole_n_substituent(mol, ring_n: Chem.Atom, x: Chem.Atom, beside: bool = False) -> float:
+    """Increment for the group on a pyrrole-type ring N. An alkyl group on the ring N bonded to
+    the basic N (N1 of a pyrazole seen from N2) crowds the N-H of the cation: a larger alkyl
+    group gains nothing from its sigma* there (1-ethyl- and 1-tert-butylpyrazole are no
+    stronger bases than 1-methylpyrazole, as alpha-branching leaves primary amines unchanged),
+    while an electron-withdrawing group still counts through it."""
     if x.GetIsAromatic():
         if mol.GetRingInfo().AreAtomsInSameRing(ring_n.GetIdx(), x.GetIdx()):
             return 0.0
@@ -1002,7 +1007,10 @@ def _azole_n_substituent(mol, ring_n: Chem.Atom, x: Chem.Atom) -> float:
     if x.GetAtomicNum() == 6 and any(b.GetBondType() == Chem.BondType.DOUBLE for b in x.GetBonds()):
         return _AZOLE_N_SUBST["vinyl"]
     if x.GetAtomicNum() == 6:
-        return _AZOLE_N_SUBST["alkyl"] - K.AZOLE_N_RHO_STAR * group_sigma_star(mol, x, ring_n)
+        star = group_sigma_star(mol, x, ring_n)
+        if beside:
+            return _AZOLE_N_SUBST["alkyl"] - K.AZOLE_N_RHO_STAR * max(star, 0.0)
+        return _AZOLE_N_SUBST["alkyl"] - K.AZOLE_N_RHO_STAR * star
     return 0.0
 
 

@@ -151,6 +151,7 @@ REFERENCE: tuple[tuple[str, str, float, float | None, str, float], ...] = (
     ("benzimidazole", "c1ccc2[nH]c[n:1]c2c1", 5.53, None, CRC, 0.05),
     ("2-methylbenzimidazole", "Cc1[nH]c2ccccc2[n:1]1", 6.19, None, P65, 0.05),
     ("pyrazole", "c1c[nH][n:1]c1", 2.48, None, CRC, 0.05),
+    ("1-methylpyrazole", "Cn1ccc[n:1]1", 2.06, None, P65, 0.1),
     ("1,2,4-triazole", "[nH]1nc[n:1]c1", 2.19, None, P65, 0.1),
     ("thiazole", "c1csc[n:1]1", 2.53, None, CRC, 0.05),
     ("oxazole", "c1coc[n:1]1", 0.80, None, P65, 0.1),
