@@ -633,3 +633,29 @@ def test_larger_alkyl_groups_beside_the_basic_n_of_a_pyrazole_gain_nothing():
     assert methyl == pytest.approx(2.06, abs=0.01)
     assert abs(ethyl - methyl) <= 0.3 and abs(tbu - methyl) <= 0.3
     assert ester < methyl - 0.5
+
+
+@pytest.mark.parametrize(
+    "tautomers",
+    [
+        ("CC(=O)N=C(N)N", "CC(=O)NC(=N)N"),  # acetylguanidine
+        ("CN1CC(=O)N=C1N", "CN1CC(=O)NC1=N"),  # creatinine, as usually drawn and as the imine
+        ("CC(=O)N=C(C)N", "CC(=O)NC(C)=N"),  # N-acetylacetamidine
+    ],
+)
+def test_an_acylated_amidine_is_basic_however_its_tautomer_is_drawn(tautomers):
+    # with the acyl group on the =N the unit used to be reported as not basic at all
+    values = [_first(t)[1] for t in tautomers]
+    assert all(v is not None and v > 4.0 for v in values), values
+    assert abs(values[0] - values[1]) <= 0.3
+
+
+def test_acyl_and_sulfonyl_guanidines():
+    # acetylguanidine 8.3 (from memory); a sulfonylguanidine is not protonated in water above
+    # pH 1, so sulfaguanidine takes its first proton on the aniline N (sulfanilamide about 2)
+    site, acetyl = _first("CC(=O)N=C(N)N")
+    assert site.kind == "guanidine" and abs(acetyl - 8.3) <= 0.6
+    site, sulfa = _first("NC(N)=NS(=O)(=O)c1ccc(N)cc1")
+    assert site.kind == "aryl_amine" and sulfa < 3.0
+    guanidine_sites = [s for s in basic_sites("CS(=O)(=O)N=C(N)N") if s.kind == "guanidine" and s.pka is not None]
+    assert guanidine_sites and all(s.pka < 1.0 for s in guanidine_sites)

@@ -292,16 +292,38 @@ def _basic_sites_cached(smiles: str, max_sites: int) -> tuple[Site, ...]:
     return tuple(_compute(mol, max_sites))
 
 
-def _shared_amidine(mol: Chem.Mol, site) -> bool:
-    """The sp3 N of an amidine or guanidine shares its cation with the =N: report it once."""
+def _shared_amidine(mol: Chem.Mol, site, kinds: dict[int, str], voiced: set[int]) -> bool:
+    """The sp3 N of an amidine or guanidine shares its cation with the =N: report it once.
+
+    When the =N is not itself a basic site (an acyl or sulfonyl group on it: the N-acyl
+    tautomer of an acylguanidine or of creatinine, as usually drawn), one sp3 N of the unit
+    carries the value instead, so the unit is never reported as not basic. ``voiced`` holds the
+    amidine carbons already given a site."""
     atom = mol.GetAtomWithIdx(site.atom_index)
-    return site.kind in ("amidine", "guanidine") and not any(
-        b.GetBondType() == Chem.BondType.DOUBLE for b in atom.GetBonds()
-    )
+    if site.kind not in ("amidine", "guanidine") or any(b.GetBondType() == Chem.BondType.DOUBLE for b in atom.GetBonds()):
+        return False
+    for c in atom.GetNeighbors():
+        if c.GetAtomicNum() != 6:
+            continue
+        partners = [
+            b.GetOtherAtom(c) for b in c.GetBonds()
+            if b.GetBondType() == Chem.BondType.DOUBLE and b.GetOtherAtom(c).GetAtomicNum() == 7
+        ]
+        if not partners:
+            continue
+        if any(kinds.get(p.GetIdx()) in ("amidine", "guanidine") for p in partners):
+            return True
+        if c.GetIdx() in voiced:
+            return True
+        voiced.add(c.GetIdx())
+        return False
+    return True
 
 
 def _compute(mol: Chem.Mol, max_sites: int, *, hydrate: bool = True) -> list[Site]:
     perceived = nitrogen_sites(mol)
+    kinds = {s.atom_index: s.kind for s in perceived}
+    voiced: set[int] = set()
     sites: dict[int, Site] = {}
     for s in perceived:
         kind = s.kind
@@ -324,7 +346,7 @@ def _compute(mol: Chem.Mol, max_sites: int, *, hydrate: bool = True) -> list[Sit
         if kind not in _FAMILY or (s.basic is False and kind not in _FAMILY):
             sites[s.atom_index] = Site(s.atom_index, kind, None, _NOT_BASIC, "class (perception)", None)
             continue
-        if _shared_amidine(mol, s):
+        if _shared_amidine(mol, s, kinds, voiced):
             sites[s.atom_index] = Site(s.atom_index, kind, None, "protonation shared with the C=N nitrogen (amidinium)", "class (perception)", None)
             continue
         v, label, src, unc = _site_value(mol, s.atom_index, kind)

@@ -1051,6 +1051,14 @@ def amidine(mol: Chem.Mol, n_idx: int) -> tuple[float, str]:
                     pka += (o - K.ANILINE["rho"] * sg) * K.AMIDINE_ARYL_SHARE
             elif x.GetAtomicNum() == 6 and _carbonyl_kind(mol, x):
                 pka -= 5.0
+            elif x.GetAtomicNum() in (15, 16) and any(
+                y.GetAtomicNum() == 8 and mol.GetBondBetweenAtoms(x.GetIdx(), y.GetIdx()).GetBondType() == Chem.BondType.DOUBLE
+                for y in x.GetNeighbors()
+            ):
+                # a sulfonyl or phosphoryl group on an amidine N: sulfonylguanidines such as
+                # sulfaguanidine are not protonated in water above pH 1 (from memory); our
+                # estimate, well beyond the acyl group's 5 units
+                pka -= 13.0
             elif x.GetAtomicNum() == 6:
                 pka += 0.05 - K.AMIDINE_N_RHO_STAR * group_sigma_star(mol, x, m)
             elif x.GetAtomicNum() in (7, 8):
