@@ -28,6 +28,7 @@ from functools import lru_cache
 from rdkit import Chem
 
 from .. import _rdlog
+from . import tautomers
 from .._memo import Memo
 from ..errors import ParseError
 from ..molecule import read_smiles
@@ -289,7 +290,21 @@ def _basic_sites_cached(smiles: str, max_sites: int) -> tuple[Site, ...]:
         mol = Chem.MolFromSmiles(smiles)
     if mol is None:  # a partially sanitized species: nothing to say about its nitrogens
         return ()
-    return tuple(_compute(mol, max_sites))
+    # an imino tautomer of an amino-heteroaromatic is counted as its amino form, an NH-pyridone
+    # through its hydroxypyridine form (same atoms, same cation)
+    read = tautomers.amino_form(mol)
+    sites = _compute(read, max_sites)
+    if read is mol:
+        return tuple(sites)
+    moved = {
+        a.GetIdx() for a in mol.GetAtoms()
+        if a.GetAtomicNum() == 7 and a.GetTotalNumHs() != read.GetAtomWithIdx(a.GetIdx()).GetTotalNumHs()
+    }
+    return tuple(
+        replace(s, method=f"{s.method}; read as its tautomer with the ring N-H moved (same cation)")
+        if s.atom_index in moved and s.pka is not None else s
+        for s in sites
+    )
 
 
 def _shared_amidine(mol: Chem.Mol, site, kinds: dict[int, str], voiced: set[int]) -> bool:

@@ -245,7 +245,10 @@ ALPHA_AZA_RESONANCE = 0.75
 # carbocation: sigma_p 0.00 and sigma_p+ -0.60 [HLT]; 4-(methylthio)pyridine 5.94 against
 # pyridine 5.25 (from memory) puts it at about -0.12; para to a diazine N it acts a little more
 # strongly. Our estimate.
-AZINE_PARA_SIGMA: dict[str, float] = {"SR": -0.15}
+# A hydroxy group para to the N: 4-hydroxypyridine is 4-pyridone in water, and the measured
+# pKa (3.27, Albert, from memory) is that of the pyridone; sigma 0.34 reproduces it, as the
+# ortho increment of OH (-5.0, 2-pyridone 0.75) does for the 2-isomer (sixth round).
+AZINE_PARA_SIGMA: dict[str, float] = {"SR": -0.15, "OH": 0.34}
 # Added to the ortho increment of an electronegative group that sits between the basic N and a
 # second ring N (C2 of a pyrimidine, a quinazoline or a 1,3,5-triazine). The second ring N has
 # already drawn electron density from that carbon, and the group's pull on the basic N is
