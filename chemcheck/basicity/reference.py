@@ -156,6 +156,10 @@ REFERENCE: tuple[tuple[str, str, float, float | None, str, float], ...] = (
     ("thiazole", "c1csc[n:1]1", 2.53, None, CRC, 0.05),
     ("oxazole", "c1coc[n:1]1", 0.80, None, P65, 0.1),
     ("indazole", "c1ccc2[nH][n:1]cc2c1", 1.25, None, P65, 0.1),
+    # purinones (N7 protonation), as recalled from Perrin's compilation and Albert's tables
+    ("hypoxanthine", "O=c1[nH]cnc2[nH]c[n:1]c12", 1.98, None, P65 + " (as recalled)", 0.2),
+    ("guanine", "Nc1nc2[nH]c[n:1]c2c(=O)[nH]1", 3.3, None, P65 + " (as recalled)", 0.2),
+    ("caffeine", "Cn1c(=O)c2c([n:1]cn2C)n(C)c1=O", 0.6, None, CRC + " (as recalled)", 0.2),
     ("guanidine", "NC(N)=[NH:1]", 13.6, None, P65, 0.1),
     ("acetamidine", "CC(N)=[NH:1]", 12.4, None, P65, 0.1),
     ("benzamidine", "NC(=[NH:1])c1ccccc1", 11.6, None, P65, 0.1),
