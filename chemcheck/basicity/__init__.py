@@ -293,7 +293,7 @@ def _basic_sites_cached(smiles: str, max_sites: int) -> tuple[Site, ...]:
     # an imino tautomer of an amino-heteroaromatic is counted as its amino form, an NH-pyridone
     # through its hydroxypyridine form (same atoms, same cation)
     read = tautomers.amino_form(mol)
-    sites = _compute(read, max_sites)
+    sites = _zwitterion(read, _compute(read, max_sites), max_sites)
     if read is mol:
         return tuple(sites)
     moved = {
@@ -305,6 +305,94 @@ def _basic_sites_cached(smiles: str, max_sites: int) -> tuple[Site, ...]:
         if s.atom_index in moved and s.pka is not None else s
         for s in sites
     )
+
+
+# Acid groups that a base in the same molecule deprotonates in water (an amino acid is a
+# zwitterion): SMARTS of the O-H, and the pKa above which a base takes the proton, about that
+# of the acid (carboxylic acids 2-5, alpha-amino acids 2.3; sulfonic acids below 0; the first
+# step of a phosphonic or phosphoric acid about 2; CRC and Perrin, from memory).
+_ACID_OH = (
+    (Chem.MolFromSmarts("[OX2H1][CX3]=[OX1]"), 4.0),
+    (Chem.MolFromSmarts("[OX2H1][SX4](=[OX1])=[OX1]"), -1.0),
+    (Chem.MolFromSmarts("[OX2H1][PX4]=[OX1]"), 2.0),
+)
+
+
+def _zwitterion(mol: Chem.Mol, sites: list[Site], max_sites: int) -> list[Site]:
+    """Sites of a molecule with both an acid group and a base stronger than that acid (amino
+    acids, aminosulfonic acids such as taurine and HEPES): in water the acid has given its
+    proton to the base, and the base's pKa is that of the zwitterion, the acid ionized (glycine
+    9.78 against 7.7 for the same amine beside a neutral COOH, CRC). The sites of such a
+    molecule are then read with its acid groups ionized; a base weaker than the acid keeps the
+    neutral acid (4-aminobenzoic acid, 2.4 below the COOH's 4.9). Each acid group gives one
+    proton (one per phosphorus), and only within its own molecule: an acid drawn as a second
+    component (pyridine with acetic acid) is left to the proton bookkeeping of acid_base."""
+    frag_of = {}
+    for k, frag in enumerate(Chem.GetMolFrags(mol)):
+        for i in frag:
+            frag_of[i] = k
+    acids: dict[int, list[tuple[int, float]]] = {}
+    phosphorus: set[int] = set()
+    for pattern, threshold in _ACID_OH:
+        for o, centre, *_ in mol.GetSubstructMatches(pattern):
+            if pattern is _ACID_OH[2][0]:
+                if centre in phosphorus:
+                    continue  # one proton from each phosphorus
+                phosphorus.add(centre)
+            acids.setdefault(frag_of[o], []).append((o, threshold))
+    if not acids:
+        return sites
+
+    def strongest(values, frag):
+        return max(
+            (x.pka for x in values if x.pka is not None and x.kind != "ammonium" and frag_of[x.atom_index] == frag),
+            default=None,
+        )
+
+    candidates = [f for f in acids if strongest(sites, f) is not None]
+    if not candidates:
+        return sites
+    ionized = _ionize(mol, [o for f in candidates for o, _t in acids[f]])
+    if ionized is None:
+        return sites
+    charged = _compute(ionized, max_sites)
+    chosen = set()
+    for f in candidates:
+        threshold = min(t for _o, t in acids[f])
+        neutral_best, charged_best = strongest(sites, f), strongest(charged, f)
+        # the zwitterion wins when the base beats the acid as drawn, or when the anion's base
+        # does so clearly (EDTA: four neutral COOH pull the amines below 4, the anion's are at 8-10)
+        if neutral_best > threshold or (charged_best is not None and charged_best > threshold + 2.0):
+            chosen.add(f)
+    if not chosen:
+        return sites
+    if chosen != set(candidates):
+        ionized = _ionize(mol, [o for f in chosen for o, _t in acids[f]])
+        if ionized is None:
+            return sites
+        charged = _compute(ionized, max_sites)
+    return [
+        replace(x, method=f"{x.method}; with the acid group ionized (zwitterion in water)")
+        if x.pka is not None and frag_of[x.atom_index] in chosen else x
+        for x in charged
+    ]
+
+
+def _ionize(mol: Chem.Mol, oxygens: list[int]) -> Chem.Mol | None:
+    """The molecule with the given acid O-H groups as O- (None when it does not sanitize)."""
+    rw = Chem.RWMol(mol)
+    for o in oxygens:
+        atom = rw.GetAtomWithIdx(o)
+        atom.SetFormalCharge(-1)
+        atom.SetNumExplicitHs(0)
+        atom.SetNoImplicit(True)
+    ionized = rw.GetMol()
+    with _rdlog.captured():
+        try:
+            Chem.SanitizeMol(ionized)
+        except Exception:  # noqa: BLE001 - keep the neutral reading
+            return None
+    return ionized
 
 
 def _shared_amidine(mol: Chem.Mol, site, kinds: dict[int, str], voiced: set[int]) -> bool:

@@ -74,6 +74,8 @@ def _hetero_key(mol: Chem.Mol, y: Chem.Atom, parent: Chem.Atom) -> str | None:
         return "OR"
     if z == 16:
         n_oxo = sum(1 for n in y.GetNeighbors() if n.GetAtomicNum() == 8 and n.GetDegree() == 1)
+        if n_oxo >= 2 and any(n.GetAtomicNum() == 8 and n.GetFormalCharge() < 0 for n in y.GetNeighbors()):
+            return "SO3-"  # a sulfonate anion (the zwitterion of taurine)
         if n_oxo >= 2:
             return "SO2"
         if n_oxo == 1:
