@@ -724,3 +724,10 @@ def test_an_amino_acid_is_read_as_its_zwitterion(smiles, value, tolerance):
     assert abs(macro - value) <= tolerance, (smiles, macro)
     if value > 5:
         assert "zwitterion" in site.method
+
+
+def test_proton_sponge_is_a_strong_base():
+    # 1,8-bis(dimethylamino)naphthalene 12.1 (Alder et al. 1968, as recalled): read as an
+    # N,N-dimethylaniline it would come out near 5
+    site, macro = _first("CN(C)c1cccc2cccc(N(C)C)c12")
+    assert macro > 11.5 and site.method == "reference value"

@@ -61,6 +61,9 @@ REFERENCE: tuple[tuple[str, str, float, float | None, str, float], ...] = (
     ("1,4-diazabicyclo[2.2.2]octane", "C1C[N:1]2CC[N:2]1CC2", 8.82, 2.97, P65, 0.05),
     ("quinuclidine", "C1C[N:1]2CCC1CC2", 11.0, None, P65, 0.05),
     ("ethylenediamine", "[NH2:1]CC[NH2:2]", 9.93, 6.85, CRC, 0.05),
+    # the chelated cation of "proton sponge" (R. W. Alder et al., Chem. Commun. 1968, 723; from
+    # memory): strain relief and the N-H-N bond make it far more basic than N,N-dimethylaniline
+    ("1,8-bis(dimethylamino)naphthalene", "C[N:1](C)c1cccc2cccc(N(C)C)c12", 12.1, None, "Alder et al. 1968 (as recalled)", 0.3),
     ("1,3-diaminopropane", "[NH2:1]CCC[NH2:2]", 10.55, 8.88, CRC, 0.05),
     ("hydrazine", "N[NH2:1]", 8.10, None, CRC, 0.1),
     ("methylhydrazine", "C[NH:1]N", 7.87, None, P65, 0.1),
