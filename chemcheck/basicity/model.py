@@ -135,9 +135,13 @@ def _term(mol, y: Chem.Atom, a: Chem.Atom, bond, depth: int, path) -> float:
         return 0.0
     if z == 6:
         if y.GetIsAromatic():
+            # ring N (and the O or S of a five-membered ring: furfuryl, thenyl) of the aryl group
             aza = sum(
                 1 for ring in mol.GetRingInfo().AtomRings() if y.GetIdx() in ring
-                for i in ring if mol.GetAtomWithIdx(i).GetAtomicNum() == 7 and mol.GetAtomWithIdx(i).GetIsAromatic()
+                for i in ring if mol.GetAtomWithIdx(i).GetIsAromatic() and (
+                    mol.GetAtomWithIdx(i).GetAtomicNum() == 7
+                    or (len(ring) == 5 and mol.GetAtomWithIdx(i).GetAtomicNum() in (8, 16))
+                )
             )
             # a ring of its own (not fused): its aza atoms go with the ring's Hammett sum
             own = mol.GetRingInfo().NumAtomRings(y.GetIdx()) == 1 and _ring_of(mol, y.GetIdx(), 6) is not None
@@ -1022,7 +1026,9 @@ def amidine(mol: Chem.Mol, n_idx: int) -> tuple[float, str]:
     carbon = None
     for b in n.GetBonds():
         o = b.GetOtherAtom(n)
-        if o.GetAtomicNum() == 6 and sum(1 for x in o.GetNeighbors() if x.GetAtomicNum() == 7) >= 2:
+        if o.GetAtomicNum() != 6 or any(ob.GetBondType() == Chem.BondType.TRIPLE for ob in o.GetBonds()):
+            continue  # not the carbon of a nitrile on this N (cyanoguanidines)
+        if sum(1 for x in o.GetNeighbors() if x.GetAtomicNum() == 7) >= 2:
             carbon = o
             break
     if carbon is None:
@@ -1053,6 +1059,10 @@ def amidine(mol: Chem.Mol, n_idx: int) -> tuple[float, str]:
                     pka += (o - K.ANILINE["rho"] * sg) * K.AMIDINE_ARYL_SHARE
             elif x.GetAtomicNum() == 6 and _carbonyl_kind(mol, x):
                 pka -= 5.0
+            elif x.GetAtomicNum() == 6 and any(b.GetBondType() == Chem.BondType.TRIPLE for b in x.GetBonds()):
+                # a cyano group on an amidine N (cyanoguanidines such as cimetidine's): the
+                # cation loses the push-pull of N-C#N; cyanoguanidine is about 0 (from memory)
+                pka -= 13.6
             elif x.GetAtomicNum() in (15, 16) and any(
                 y.GetAtomicNum() == 8 and mol.GetBondBetweenAtoms(x.GetIdx(), y.GetIdx()).GetBondType() == Chem.BondType.DOUBLE
                 for y in x.GetNeighbors()
@@ -1156,7 +1166,14 @@ def imine(mol: Chem.Mol, n_idx: int) -> tuple[float, str]:
         return 2.8, "class value, N-aryl imine"
     carbon = [b.GetOtherAtom(n) for b in n.GetBonds() if b.GetBondType() == Chem.BondType.DOUBLE][0]
     conj = any(x.GetIsAromatic() for x in carbon.GetNeighbors())
-    return (6.9 if conj else 9.0), "class value, imine"
+    pka = 6.9 if conj else 9.0
+    # an electron-withdrawing group on the imine N (the CH2-C(=O) of a 1,4-benzodiazepine)
+    # through its sigma*, with the tertiary-amine rho* [PDS]: the iminium, like a tertiary
+    # ammonium ion, has one N-H. Alkyl groups keep the class value.
+    for x in n.GetNeighbors():
+        if x.GetIdx() != carbon.GetIdx() and x.GetAtomicNum() == 6:
+            pka -= K.TAFT_AMINE["tertiary"][1] * max(group_sigma_star(mol, x, n), 0.0)
+    return pka, "class value, imine, with the sigma* of an electron-withdrawing N-substituent"
 
 
 def statistical(n_equivalent: int) -> float:
