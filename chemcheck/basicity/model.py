@@ -113,8 +113,14 @@ def _hetero_key(mol: Chem.Mol, y: Chem.Atom, parent: Chem.Atom) -> str | None:
     return None
 
 
-def group_sigma_star(mol: Chem.Mol, atom: Chem.Atom, parent: Chem.Atom, depth: int = 0, path=None) -> float:
-    """Taft sigma* of the group that starts at ``atom`` (bound to ``parent``)."""
+def group_sigma_star(
+    mol: Chem.Mol, atom: Chem.Atom, parent: Chem.Atom, depth: int = 0, path=None, claimed: set | None = None
+) -> float:
+    """Taft sigma* of the group that starts at ``atom`` (bound to ``parent``).
+
+    With ``claimed`` shared between the groups on one N, a substituent that two groups reach
+    (a ring substituent that lies on both ring paths from the N: C4 of a piperidine, C3 of a
+    tropane) counts once, on the path that reaches it first."""
     path = (path or set()) | {parent.GetIdx(), atom.GetIdx()}
     if atom.GetIsAromatic():
         aza = sum(1 for n in atom.GetNeighbors() if n.GetAtomicNum() == 7 and n.GetIsAromatic())
@@ -124,15 +130,21 @@ def group_sigma_star(mol: Chem.Mol, atom: Chem.Atom, parent: Chem.Atom, depth: i
         y = b.GetOtherAtom(atom)
         if y.GetIdx() in path:
             continue
-        total += _term(mol, y, atom, b, depth, path)
+        total += _term(mol, y, atom, b, depth, path, claimed)
     return total
 
 
-def _term(mol, y: Chem.Atom, a: Chem.Atom, bond, depth: int, path) -> float:
+def _term(mol, y: Chem.Atom, a: Chem.Atom, bond, depth: int, path, claimed: set | None = None) -> float:
     """Contribution of substituent ``y`` on the carbon ``a`` to sigma*(group at a)."""
     z = y.GetAtomicNum()
     if z == 1:
         return 0.0
+    if claimed is not None and (z != 6 or y.GetIsAromatic() or _carbonyl_kind(mol, y) or any(
+        b2.GetBondType() != Chem.BondType.SINGLE for b2 in y.GetBonds()
+    )):
+        if y.GetIdx() in claimed:
+            return 0.0
+        claimed.add(y.GetIdx())
     if z == 6:
         if y.GetIsAromatic():
             # ring N (and the O or S of a five-membered ring: furfuryl, thenyl) of the aryl group
@@ -164,7 +176,7 @@ def _term(mol, y: Chem.Atom, a: Chem.Atom, bond, depth: int, path) -> float:
             return K.SIGMA_STAR_Z["C=N"] if other.GetAtomicNum() == 7 else K.SIGMA_STAR_Z["C=C"]
         if depth >= 3:
             return 0.0
-        s = group_sigma_star(mol, y, a, depth + 1, path)
+        s = group_sigma_star(mol, y, a, depth + 1, path, claimed)
         # an alkyl carbon on the alpha carbon gives sigma*(Et); farther out an alkyl chain adds
         # nothing in water (n-propyl-, n-butyl-, n-hexylamine 10.57, 10.64, 10.56 against
         # ethylamine 10.65, CRC, from memory; in rings the sums also ran both ways round)
@@ -219,8 +231,9 @@ def aliphatic(mol: Chem.Mol, n_idx: int) -> tuple[float, str]:
     # a neutral electron-withdrawing group counts K.TAFT_EWG_SCALE times; the sigma* of a
     # charged group (the ammonium ion of a diamine's second step) is used as it stands
     sigma = 0.0
+    claimed: set[int] = set()
     for x in heavy:
-        g = group_sigma_star(mol, x, n)
+        g = group_sigma_star(mol, x, n, claimed=claimed)
         sigma += g * K.TAFT_EWG_SCALE if g > 0 and not _carries_cation(mol, x, n) else g
     # steric hindrance to solvation: the fewer N-H a crowded ammonium ion has, the less water
     # can stabilise it, which the sigma* of branched alkyl groups does not see
