@@ -120,7 +120,9 @@ def group_sigma_star(
 
     With ``claimed`` shared between the groups on one N, a substituent that two groups reach
     (a ring substituent that lies on both ring paths from the N: C4 of a piperidine, C3 of a
-    tropane) counts once, on the path that reaches it first."""
+    tropane) counts once, on the path that reaches it first. A nitrogen or a charged group
+    still counts on each path: the second N of a ring diamine, neutral and protonated, keeps
+    the two steps of piperazine (9.73, 5.35) as they were calibrated."""
     path = (path or set()) | {parent.GetIdx(), atom.GetIdx()}
     if atom.GetIsAromatic():
         aza = sum(1 for n in atom.GetNeighbors() if n.GetAtomicNum() == 7 and n.GetIsAromatic())
@@ -139,7 +141,7 @@ def _term(mol, y: Chem.Atom, a: Chem.Atom, bond, depth: int, path, claimed: set 
     z = y.GetAtomicNum()
     if z == 1:
         return 0.0
-    if claimed is not None and (z != 6 or y.GetIsAromatic() or _carbonyl_kind(mol, y) or any(
+    if claimed is not None and z != 7 and y.GetFormalCharge() == 0 and (z != 6 or y.GetIsAromatic() or _carbonyl_kind(mol, y) or any(
         b2.GetBondType() != Chem.BondType.SINGLE for b2 in y.GetBonds()
     )):
         if y.GetIdx() in claimed:
