@@ -761,3 +761,11 @@ def test_a_ring_substituent_on_both_paths_from_the_n_counts_once():
     # N; summed along each path, the ester's pull came out twice and cocaine at 7.7
     _, cocaine = _first("COC(=O)[C@H]1[C@@H](OC(=O)c2ccccc2)C[C@@H]2CC[C@H]1N2C")
     assert abs(cocaine - 8.6) <= 0.3
+
+
+def test_the_salt_of_an_amino_acid_reports_the_n_h_of_its_zwitterion():
+    # glycine hydrochloride and the drawn zwitterion: the ammonium's pKa is glycine's 9.78 (CRC,
+    # from memory), not that of an amine beside a neutral COOH
+    for smiles in ("OC(=O)C[NH3+].[Cl-]", "[NH3+]CC(=O)[O-]"):
+        [site] = [s for s in basic_sites(smiles) if s.kind == "ammonium"]
+        assert abs(site.pka - 9.78) <= 0.3, smiles

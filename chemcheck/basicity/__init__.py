@@ -440,6 +440,8 @@ def _compute(mol: Chem.Mol, max_sites: int, *, hydrate: bool = True) -> list[Sit
                     for hs in hydration.hydration_sites(free):
                         if s.atom_index in (hs.n_added, hs.amidine_n):
                             _add_hydration(free, one, hs, max_sites)
+                    # the salt of an amino acid: its N-H is that of the zwitterion
+                    one = {x.atom_index: x for x in _zwitterion(free, list(one.values()), max_sites)}
                 base = one[s.atom_index]
                 sites[s.atom_index] = Site(
                     s.atom_index, kind, base.pka, f"salt: N-H of the {free_kind.replace('_', ' ')}; {base.method}",
