@@ -114,13 +114,14 @@ def _hetero_key(mol: Chem.Mol, y: Chem.Atom, parent: Chem.Atom) -> str | None:
 
 
 def group_sigma_star(
-    mol: Chem.Mol, atom: Chem.Atom, parent: Chem.Atom, depth: int = 0, path=None, claimed: set | None = None
+    mol: Chem.Mol, atom: Chem.Atom, parent: Chem.Atom, depth: int = 0, path=None, claimed: dict | None = None
 ) -> float:
     """Taft sigma* of the group that starts at ``atom`` (bound to ``parent``).
 
     With ``claimed`` shared between the groups on one N, a substituent that two groups reach
     (a ring substituent that lies on both ring paths from the N: C4 of a piperidine, C3 of a
-    tropane) counts once, on the path that reaches it first. A nitrogen or a charged group
+    tropane) counts once, on the shortest path that reaches it (``claimed`` holds the shortest
+    depth of each such atom from a first survey, and the atoms already counted). A nitrogen or a charged group
     still counts on each path: the second N of a ring diamine, neutral and protonated, keeps
     the two steps of piperazine (9.73, 5.35) as they were calibrated."""
     path = (path or set()) | {parent.GetIdx(), atom.GetIdx()}
@@ -136,7 +137,7 @@ def group_sigma_star(
     return total
 
 
-def _term(mol, y: Chem.Atom, a: Chem.Atom, bond, depth: int, path, claimed: set | None = None) -> float:
+def _term(mol, y: Chem.Atom, a: Chem.Atom, bond, depth: int, path, claimed: dict | None = None) -> float:
     """Contribution of substituent ``y`` on the carbon ``a`` to sigma*(group at a)."""
     z = y.GetAtomicNum()
     if z == 1:
@@ -144,9 +145,13 @@ def _term(mol, y: Chem.Atom, a: Chem.Atom, bond, depth: int, path, claimed: set 
     if claimed is not None and z != 7 and y.GetFormalCharge() == 0 and (z != 6 or y.GetIsAromatic() or _carbonyl_kind(mol, y) or any(
         b2.GetBondType() != Chem.BondType.SINGLE for b2 in y.GetBonds()
     )):
-        if y.GetIdx() in claimed:
+        i = y.GetIdx()
+        if claimed["survey"]:
+            claimed["depth"][i] = min(depth, claimed["depth"].get(i, depth))
+        elif i in claimed["done"] or depth > claimed["depth"].get(i, depth):
             return 0.0
-        claimed.add(y.GetIdx())
+        else:
+            claimed["done"].add(i)
     if z == 6:
         if y.GetIsAromatic():
             # ring N (and the O or S of a five-membered ring: furfuryl, thenyl) of the aryl group
@@ -233,7 +238,10 @@ def aliphatic(mol: Chem.Mol, n_idx: int) -> tuple[float, str]:
     # a neutral electron-withdrawing group counts K.TAFT_EWG_SCALE times; the sigma* of a
     # charged group (the ammonium ion of a diamine's second step) is used as it stands
     sigma = 0.0
-    claimed: set[int] = set()
+    claimed: dict = {"survey": True, "depth": {}, "done": set()}
+    for x in heavy:  # survey: the shortest depth at which each substituent is reached
+        group_sigma_star(mol, x, n, claimed=claimed)
+    claimed["survey"] = False
     for x in heavy:
         g = group_sigma_star(mol, x, n, claimed=claimed)
         sigma += g * K.TAFT_EWG_SCALE if g > 0 and not _carries_cation(mol, x, n) else g
