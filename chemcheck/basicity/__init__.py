@@ -240,12 +240,14 @@ def _protonate(mol: Chem.Mol, idx: int) -> Chem.Mol:
     return out
 
 
-def _deprotonate(mol: Chem.Mol, idx: int) -> Chem.Mol:
+def _deprotonate(mol: Chem.Mol, *indices: int) -> Chem.Mol:
+    """The molecule with one proton taken from each of the given atoms."""
     rw = Chem.RWMol(mol)
-    a = rw.GetAtomWithIdx(idx)
-    a.SetFormalCharge(a.GetFormalCharge() - 1)
-    a.SetNumExplicitHs(max(a.GetTotalNumHs() - 1, 0))
-    a.SetNoImplicit(True)
+    for idx in indices:
+        a = rw.GetAtomWithIdx(idx)
+        a.SetFormalCharge(a.GetFormalCharge() - 1)
+        a.SetNumExplicitHs(max(a.GetTotalNumHs() - 1, 0))
+        a.SetNoImplicit(True)
     out = rw.GetMol()
     with _rdlog.captured():
         Chem.SanitizeMol(out, catchErrors=True)
@@ -311,10 +313,11 @@ def _basic_sites_cached(smiles: str, max_sites: int) -> tuple[Site, ...]:
 # zwitterion): SMARTS of the O-H, and the pKa above which a base takes the proton, about that
 # of the acid (carboxylic acids 2-5, alpha-amino acids 2.3; sulfonic acids below 0; the first
 # step of a phosphonic or phosphoric acid about 2; CRC and Perrin, from memory).
+# The last field: only one proton per acid centre (the first step of a phosphorus acid).
 _ACID_OH = (
-    (Chem.MolFromSmarts("[OX2H1][CX3]=[OX1]"), 4.0),
-    (Chem.MolFromSmarts("[OX2H1][SX4](=[OX1])=[OX1]"), -1.0),
-    (Chem.MolFromSmarts("[OX2H1][PX4]=[OX1]"), 2.0),
+    (Chem.MolFromSmarts("[OX2H1][CX3]=[OX1]"), 4.0, False),
+    (Chem.MolFromSmarts("[OX2H1][SX4](=[OX1])=[OX1]"), -1.0, False),
+    (Chem.MolFromSmarts("[OX2H1][PX4]=[OX1]"), 2.0, True),
 )
 
 
@@ -332,13 +335,12 @@ def _zwitterion(mol: Chem.Mol, sites: list[Site], max_sites: int) -> list[Site]:
         for i in frag:
             frag_of[i] = k
     acids: dict[int, list[tuple[int, float]]] = {}
-    phosphorus: set[int] = set()
-    for pattern, threshold in _ACID_OH:
+    centres: set[int] = set()
+    for pattern, threshold, once in _ACID_OH:
         for o, centre, *_ in mol.GetSubstructMatches(pattern):
-            if pattern is _ACID_OH[2][0]:
-                if centre in phosphorus:
-                    continue  # one proton from each phosphorus
-                phosphorus.add(centre)
+            if once and centre in centres:
+                continue
+            centres.add(centre)
             acids.setdefault(frag_of[o], []).append((o, threshold))
     if not acids:
         return sites
@@ -352,10 +354,7 @@ def _zwitterion(mol: Chem.Mol, sites: list[Site], max_sites: int) -> list[Site]:
     candidates = [f for f in acids if strongest(sites, f) is not None]
     if not candidates:
         return sites
-    ionized = _ionize(mol, [o for f in candidates for o, _t in acids[f]])
-    if ionized is None:
-        return sites
-    charged = _compute(ionized, max_sites)
+    charged = _compute(_deprotonate(mol, *(o for f in candidates for o, _t in acids[f])), max_sites)
     chosen = set()
     for f in candidates:
         threshold = min(t for _o, t in acids[f])
@@ -367,32 +366,12 @@ def _zwitterion(mol: Chem.Mol, sites: list[Site], max_sites: int) -> list[Site]:
     if not chosen:
         return sites
     if chosen != set(candidates):
-        ionized = _ionize(mol, [o for f in chosen for o, _t in acids[f]])
-        if ionized is None:
-            return sites
-        charged = _compute(ionized, max_sites)
+        charged = _compute(_deprotonate(mol, *(o for f in chosen for o, _t in acids[f])), max_sites)
     return [
         replace(x, method=f"{x.method}; with the acid group ionized (zwitterion in water)")
         if x.pka is not None and frag_of[x.atom_index] in chosen else x
         for x in charged
     ]
-
-
-def _ionize(mol: Chem.Mol, oxygens: list[int]) -> Chem.Mol | None:
-    """The molecule with the given acid O-H groups as O- (None when it does not sanitize)."""
-    rw = Chem.RWMol(mol)
-    for o in oxygens:
-        atom = rw.GetAtomWithIdx(o)
-        atom.SetFormalCharge(-1)
-        atom.SetNumExplicitHs(0)
-        atom.SetNoImplicit(True)
-    ionized = rw.GetMol()
-    with _rdlog.captured():
-        try:
-            Chem.SanitizeMol(ionized)
-        except Exception:  # noqa: BLE001 - keep the neutral reading
-            return None
-    return ionized
 
 
 def _shared_amidine(mol: Chem.Mol, site, kinds: dict[int, str], voiced: set[int]) -> bool:

@@ -238,10 +238,14 @@ def aliphatic(mol: Chem.Mol, n_idx: int) -> tuple[float, str]:
     # a neutral electron-withdrawing group counts K.TAFT_EWG_SCALE times; the sigma* of a
     # charged group (the ammonium ion of a diamine's second step) is used as it stands
     sigma = 0.0
-    claimed: dict = {"survey": True, "depth": {}, "done": set()}
-    for x in heavy:  # survey: the shortest depth at which each substituent is reached
-        group_sigma_star(mol, x, n, claimed=claimed)
-    claimed["survey"] = False
+    # a substituent can be reached twice only through a ring: only then survey the shortest
+    # depth at which each one is reached
+    claimed: dict | None = None
+    if mol.GetRingInfo().NumRings():
+        claimed = {"survey": True, "depth": {}, "done": set()}
+        for x in heavy:
+            group_sigma_star(mol, x, n, claimed=claimed)
+        claimed["survey"] = False
     for x in heavy:
         g = group_sigma_star(mol, x, n, claimed=claimed)
         sigma += g * K.TAFT_EWG_SCALE if g > 0 and not _carries_cation(mol, x, n) else g
@@ -791,6 +795,7 @@ def _twist(mol: Chem.Mol, n: Chem.Atom, ipso: Chem.Atom, ring: list[int]) -> flo
         and not any(b.GetBondTypeAsDouble() > 1 for b in x.GetBonds())
     ]
     other = 0.0
+    alkyl_idx = {x.GetIdx() for x in ortho_alkyl}
     if n_alkyl == 2:
         # any other ortho group crowds an NR2 group the same way; with no N-H left to hold it
         # and no lone pair in conjugation, the group acts by its field effect alone
@@ -799,7 +804,7 @@ def _twist(mol: Chem.Mol, n: Chem.Atom, ipso: Chem.Atom, ring: list[int]) -> flo
             if r.GetIdx() not in ring_set:
                 continue
             for x in r.GetNeighbors():
-                if x.GetIdx() in ring_set or x.GetAtomicNum() == 1 or x in ortho_alkyl:
+                if x.GetIdx() in ring_set or x.GetAtomicNum() == 1 or x.GetIdx() in alkyl_idx:
                     continue
                 key = classify_substituent(mol, r, x, ring_set)
                 if key in K.FIELD and key in K.ORTHO_ANILINE:
