@@ -235,8 +235,9 @@ def acid_scavenger_short(ctx: Context):
         released (HX, a sulfonic or carboxylic acid), plus any acid brought in, is more than the
         bases present can take up, so that part of the amine ends up as its unreactive salt.
         The proton bookkeeping of ``chemcheck.acid_base`` gives the largest conversion reachable.
-        Without amounts one equivalent of each reactant and agent is assumed (and the finding is
-        a warning).
+        An amino acid counts with its own proton: in water its acid group has protonated its
+        amine (a zwitterion), and a base must free the amine first. Without amounts one
+        equivalent of each reactant and agent is assumed (and the finding is a warning).
 
     Why it matters
         Each turnover releases one equivalent of acid. Without another base it protonates the
@@ -278,6 +279,10 @@ def acid_scavenger_short(ctx: Context):
         bases = bases_present(ctx, {nuc.index, elec.index})
         brought = acids_brought_in(ctx, {nuc.index, elec.index})
         protons = sum(m for _, _, m in brought)
+        # an amino acid brings its own proton: its acid group has protonated its amine
+        # (a zwitterion), and a base must take that proton before the amine can react
+        internal = n_nuc if "zwitterion" in (site.method or "") else 0.0
+        protons += internal
         assumed = a1 or a2 or any(b.assumed for b in bases)
         balance_args = dict(
             acid_per_turnover=per, released_pka=acid_pka, protons_present=protons, nucleophile_per_turnover=per
@@ -298,6 +303,11 @@ def acid_scavenger_short(ctx: Context):
             + (f", at its {_word(taken.kind)} N" if taken is not site else "")
             + "), which then cannot react."
         ]
+        if internal:
+            parts.append(
+                f"{nuc.label} is an amino acid: its own acid group protonates its amine (a zwitterion), so one "
+                "equivalent of base goes to freeing the amine before any takes up the released acid."
+            )
         if acid_pka > 0:
             k = taken.pka - acid_pka
             parts.append(
@@ -324,7 +334,9 @@ def acid_scavenger_short(ctx: Context):
         need = per + protons / max(n_e, 1e-9)
         fix = (
             f"Add at least {need + 0.1:.1f} equiv of a base at least as strong as {nuc.label}, such as "
-            f"{_base_advice(taken.pka)}; or use {1 + per:.0f} equiv of {nuc.label}."
+            f"{_base_advice(taken.pka)}"
+            # more of an amino acid brings more of its own protons: no help
+            + ("." if internal else f"; or use {1 + per:.0f} equiv of {nuc.label}.")
         )
         atoms = [(nuc.index, site.atom_index), (elec.index, groups[0].atoms[-1]), (elec.index, groups[0].centre)]
         yield r.finding(" ".join(parts), atoms=atoms, fix=fix, severity="warning" if assumed else "error")
