@@ -3,6 +3,12 @@
 Chemists rarely draw the HCl of an acylation or the water of a condensation. The balance looks
 for small integer coefficients (1 to 3) and up to two common small by-products that make the
 equation balance; what remains unexplained is reported as the element difference.
+
+An organic by-product is offered only where it can come from the other side: its carbon
+skeleton must stand in a reactant (methanol from a methyl ester or ether, tert-butanol from a
+Boc group), cut off by breaking at most two bonds; a reagent needed on the left must stand in
+a product the same way. Otherwise a wrong product (one carbon short, say) would be "balanced"
+by methanol that nothing releases, and the chemist would be told to draw it.
 """
 
 from __future__ import annotations
@@ -24,7 +30,7 @@ __all__ = ["Balance", "balance", "element_counts"]
 BY_PRODUCTS: tuple[tuple[str, str], ...] = (
     ("HCl", "Cl"), ("HBr", "Br"), ("HI", "I"), ("HF", "F"), ("H2O", "O"), ("CO2", "O=C=O"),
     ("CO", "[C-]#[O+]"), ("N2", "N#N"), ("NH3", "N"), ("H2", "[H][H]"), ("methanol", "CO"),
-    ("ethanol", "CCO"), ("tert-butanol", "CC(C)(C)O"), ("acetic acid", "CC(=O)O"),
+    ("ethanol", "CCO"), ("tert-butanol", "CC(C)(C)O"), ("isobutylene", "C=C(C)C"), ("acetic acid", "CC(=O)O"),
     ("trifluoroacetic acid", "OC(=O)C(F)(F)F"), ("p-toluenesulfonic acid", "Cc1ccc(cc1)S(=O)(=O)O"),
     ("methanesulfonic acid", "CS(=O)(=O)O"), ("triflic acid", "OS(=O)(=O)C(F)(F)F"),
     ("imidazole", "c1c[nH]cn1"), ("succinimide", "O=C1CCC(=O)N1"), ("SO2", "O=S=O"),
@@ -62,6 +68,63 @@ def _by_product_vectors() -> tuple[tuple[str, str, Counter, int], ...]:
     return tuple(out)
 
 
+# By-products formed from their parts rather than cut whole from a reactant, with the groups
+# (SMARTS) one of the molecules on the other side must hold for them to appear. Product side:
+# CO2 from a carbon with two oxygens (acids, carbonates, carbamates, Boc2O, CDI), CO from an
+# oxalyl, formyl-O/N or metal carbonyl unit, isobutylene from a tert-butyl ester, carbamate or
+# ether (acidic removal of Boc and tBu groups), H2 from a hydride or an active metal. Reactant side
+# (a reagent needed on the left): CO2 and CO must end up on a product carbon. Common practice.
+_FORMED: dict[str, dict[str, tuple[str, ...]]] = {
+    "CO2": {"product": ("[#6](~[#8])~[#8]",), "reactant": ("[#6](~[#8])~[#8]",)},
+    "CO": {"product": ("[#6](=[#8])[#6]=[#8]", "[CX3H1](=O)[#7,#8]", "[#6-]#[#8+]"), "reactant": ("[#6]=[#8]",)},
+    "isobutylene": {"product": ("[CX4]([CH3])([CH3])([CH3])[#8,#7]",), "reactant": ()},  # Boc removal
+    "H2": {"product": ("[#1-]", "[#5,#13,#14;!H0]", "[Li,Na,K,Mg,Ca,Zn]"), "reactant": ()},
+}
+
+
+@lru_cache(maxsize=1)
+def _formed_queries() -> dict[tuple[str, str], tuple[Chem.Mol, ...]]:
+    return {(name, side): tuple(Chem.MolFromSmarts(q) for q in qs) for name, sides in _FORMED.items() for side, qs in sides.items()}
+
+
+@lru_cache(maxsize=1)
+def _skeletons() -> dict[str, tuple[Chem.Mol, tuple[int, ...]]]:
+    """For each carbon-bearing by-product: a query of its heavy-atom skeleton (elements,
+    aromaticity and bond orders; charges and hydrogens free) and the heavy degree of each atom."""
+    out = {}
+    for name, smi in BY_PRODUCTS:
+        mol = Chem.MolFromSmiles(smi)
+        if not any(a.GetAtomicNum() == 6 for a in mol.GetAtoms()):
+            continue
+        if len(Chem.GetMolFrags(mol)) > 1:
+            continue  # salts: formed from their ions
+        bare = Chem.RWMol(mol)
+        for a in bare.GetAtoms():
+            a.SetFormalCharge(0)
+        query = Chem.MolFromSmarts(Chem.MolToSmarts(bare))
+        out[name] = (query, tuple(a.GetDegree() for a in mol.GetAtoms()))
+    return out
+
+
+def _cut_from(name: str, mols: tuple[Chem.Mol, ...], side: str) -> bool:
+    """Whether the by-product ``name`` (missing on ``side``) can come from one of ``mols``: cut
+    whole by breaking at most two bonds (its atoms there have at most two more heavy neighbours
+    in all than in it), or, for the formed ones, from a group that gives it."""
+    if name in _FORMED:
+        queries = _formed_queries()[(name, side)]
+        return not queries or any(m.HasSubstructMatch(q) for m in mols for q in queries)
+    entry = _skeletons().get(name)
+    if entry is None:
+        return True
+    query, degrees = entry
+    for mol in mols:
+        for match in mol.GetSubstructMatches(query, uniquify=False, maxMatches=200):
+            extra = sum(mol.GetAtomWithIdx(i).GetDegree() - d for i, d in zip(match, degrees))
+            if extra <= 2:
+                return True
+    return False
+
+
 @dataclass(frozen=True)
 class Missing:
     name: str
@@ -97,20 +160,21 @@ def _key(c: Counter) -> frozenset:
 
 
 @lru_cache(maxsize=1)
-def _by_product_table() -> dict[frozenset, list[Missing]]:
-    """What up to two by-products (each 1 to 3 times) add, keyed by element vector and charge."""
-    table: dict[frozenset, list[Missing]] = {}
+def _by_product_table() -> dict[frozenset, list[list[Missing]]]:
+    """What up to two by-products (each 1 to 3 times) add, keyed by element vector and charge:
+    every combination with that sum, singles first, in the order of BY_PRODUCTS."""
+    table: dict[frozenset, list[list[Missing]]] = {}
     singles = []
     for name, formula, vec, q in _by_product_vectors():
         for k in (1, 2, 3):
             singles.append(((name, formula, k), Counter({e: n * k for e, n in vec.items()}), q * k))
     for info, vec, q in singles:
-        table.setdefault(_key(vec) | {("__q", q)}, [Missing(info[0], info[1], info[2], "product")])
+        table.setdefault(_key(vec) | {("__q", q)}, []).append([Missing(info[0], info[1], info[2], "product")])
     for (a, va, qa), (b, vb, qb) in itertools.combinations(singles, 2):
         if a[0] == b[0] or a[2] > 2 or b[2] > 2:
             continue
         key = _key(va + vb) | {("__q", qa + qb)}
-        table.setdefault(key, [Missing(a[0], a[1], a[2], "product"), Missing(b[0], b[1], b[2], "product")])
+        table.setdefault(key, []).append([Missing(a[0], a[1], a[2], "product"), Missing(b[0], b[1], b[2], "product")])
     return table
 
 
@@ -173,12 +237,16 @@ def _balance(reaction: Reaction) -> tuple:
 
     table = _by_product_table()
     bps = _by_product_vectors()
+    sources = {
+        "product": tuple(c.mol for c in reactants),  # a left-out by-product comes from a reactant
+        "reactant": tuple(c.mol for c in products),  # a left-out reagent ends up in a product
+    }
 
     def lookup(vec: Counter, q: int, side: str) -> list[Missing] | None:
-        found = table.get(_key(vec) | {("__q", q)})
-        if found is None:
-            return None
-        return [Missing(m.name, m.formula, m.count, side) for m in found]
+        for found in table.get(_key(vec) | {("__q", q)}, ()):
+            if all(_cut_from(m.name, sources[side], side) for m in found):
+                return [Missing(m.name, m.formula, m.count, side) for m in found]
+        return None
 
     best = None
     n = len(species)
@@ -200,7 +268,7 @@ def _balance(reaction: Reaction) -> tuple:
             elif extra == 0:
                 # a reagent left out on the left and a by-product on the right (a hydrolysis)
                 for name, formula, vec, rq in bps:
-                    if rq:
+                    if rq or not _cut_from(name, sources["reactant"], "reactant"):
                         continue
                     rest = diff + vec
                     rest = Counter({e: v for e, v in rest.items() if v})

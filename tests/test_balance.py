@@ -79,3 +79,40 @@ def test_agents_do_not_count_in_the_balance():
     report = chemcheck.check("CCN.CC(=O)Cl>CCN(CC)CC.ClCCl>CCNC(C)=O")
     [f] = report.by_rule("unbalanced-equation")
     assert f.message.startswith("HCl is not drawn")
+
+
+@pytest.mark.parametrize(
+    "reaction,expected",
+    [
+        # aminolysis of a methyl ester releases methanol (common practice)
+        ("NCc1ccccc1.COC(=O)c1ccccc1>>O=C(NCc1ccccc1)c1ccccc1", [("methanol", 1, "product")]),
+        # acidic removal of a Boc group: CO2 and isobutylene (Greene's Protective Groups, 5th ed.)
+        ("CC(C)(C)OC(=O)NCCc1ccccc1>>NCCc1ccccc1", [("CO2", 1, "product"), ("isobutylene", 1, "product")]),
+        # methanolysis of an acid chloride: the methanol ends up in the ester (common practice)
+        ("CC(=O)Cl>>CC(=O)OC", [("HCl", 1, "product"), ("methanol", 1, "reactant")]),
+    ],
+)
+def test_organic_by_products_come_from_the_other_side(reaction, expected):
+    b, got = missing(reaction)
+    assert b.balanced
+    assert got == expected
+
+
+def test_a_product_one_carbon_short_is_not_balanced_with_invented_methanol():
+    # benzylamine + benzaldehyde drawn as the N-phenyl imine: a CH2 has gone missing, and no
+    # reactant holds a C-O single bond that could leave as methanol
+    b, got = missing("NCc1ccccc1.O=Cc1ccccc1>>C(=Nc1ccccc1)c1ccccc1")
+    assert not b.balanced and got == []
+    assert b.residual == {"C": 1, "H": 4, "O": 1}
+    report = chemcheck.check("NCc1ccccc1.O=Cc1ccccc1>>C(=Nc1ccccc1)c1ccccc1")
+    [f] = report.by_rule("unbalanced-equation")
+    assert "does not balance" in f.message and "methanol" not in f.message
+
+
+def test_hydrogen_and_carbon_monoxide_need_a_source():
+    # an aldehyde has no hydride and no oxalyl or formyl-X unit: "CO and 2 H2" is not offered
+    b, got = missing("NCc1ccccc1.O=Cc1ccccc1>>NCc1ccccc1")
+    assert all(name not in ("H2", "CO") for name, _, _ in got)
+    # sodium hydride deprotonating an amine does release H2
+    b, got = missing("CCN.[Na+].[H-]>>CC[NH-].[Na+]")
+    assert got == [("H2", 1, "product")]
