@@ -215,6 +215,32 @@ def balance(reaction: Reaction) -> Balance:
     return Balance(drawn_ok, ok, {c.index: k for c, k in zip(species, coeffs)}, list(missing), dict(residual), charge)
 
 
+_ACIDS = frozenset({
+    "HCl", "HBr", "HI", "HF", "acetic acid", "trifluoroacetic acid", "p-toluenesulfonic acid",
+    "methanesulfonic acid", "triflic acid", "H2SO4", "HNO3",
+})
+
+
+def _spectator_salt(reactants, vectors, charges, drawn: Counter, drawn_q: int, lookup) -> Missing | None:
+    """A base drawn among the reactants that stays out of the products (triethylamine in
+    ``Et3N.RCOCl.R'NH2>>RCONHR'``) leaves as its salt with the acid the reaction releases: the
+    difference is then that reactant plus one acid."""
+    for c, vec, q in zip(reactants, vectors, charges):
+        if not any(a.GetAtomicNum() == 7 and a.GetFormalCharge() == 0 for a in c.mol.GetAtoms()):
+            continue
+        rest = Counter(drawn)
+        rest.subtract(vec)
+        rest = Counter({e: v for e, v in rest.items() if v})
+        if not rest or any(v < 0 for v in rest.values()):
+            continue
+        found = lookup(rest, drawn_q - q, "product")
+        if found and len(found) == 1 and found[0].name in _ACIDS and found[0].count == 1:
+            acid = found[0]
+            formula = rdMolDescriptors.CalcMolFormula(c.mol) + "·" + acid.formula
+            return Missing(f"the {acid.name} salt of {c.label}", formula, 1, "product")
+    return None
+
+
 def _balance(reaction: Reaction) -> tuple:
     reactants = reaction.reactants
     products = reaction.products
@@ -285,6 +311,9 @@ def _balance(reaction: Reaction) -> tuple:
             best = cand
     if best is not None:
         return (drawn_ok, True, tuple(best[2]), tuple(best[3]), {}, 0)
+    salt = _spectator_salt(reactants, vectors, charges, drawn, drawn_q, lookup)
+    if salt is not None:
+        return (drawn_ok, True, ones, (salt,), {}, 0)
     return (
         False,
         False,

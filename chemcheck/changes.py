@@ -124,6 +124,7 @@ def _correspondence(reaction: Reaction) -> dict[tuple[int, int], tuple[int, int]
                 if a.GetAtomMapNum() and a.GetAtomMapNum() in prod_by_map:
                     out[(r.index, a.GetIdx())] = prod_by_map[a.GetAtomMapNum()]
         return out
+    found: list[tuple[int, int, tuple]] = []  # (reactant, product, pairs)
     for r in reaction.reactants:
         if r.sanitization != "full":
             continue
@@ -143,8 +144,21 @@ def _correspondence(reaction: Reaction) -> dict[tuple[int, int], tuple[int, int]
             if best is None or len(mapped) > len(best[1]):
                 best = (p.index, mapped)
         if best is not None:
-            for ra, pa in best[1]:
-                out[(r.index, ra)] = (best[0], pa)
+            found.append((r.index, best[0], best[1]))
+    # An atom of a product comes from one reactant only. Where two reactants map onto the same
+    # product atoms (the ethyl-N of triethylamine drawn among the reactants onto the N-ethyl of
+    # the amide an amine gives), the larger common part holds them; the other keeps the rest of
+    # its mapping if that is still a real match, and is dropped if not.
+    claimed: set[tuple[int, int]] = set()
+    for ri, pi, pairs in sorted(found, key=lambda f: -len(f[2])):
+        free = [(ra, pa) for ra, pa in pairs if (pi, pa) not in claimed]
+        if len(free) < len(pairs):
+            heavy = reaction.components[ri].mol.GetNumHeavyAtoms()
+            if len(free) < max(2, int(0.5 * heavy)):
+                continue
+        for ra, pa in free:
+            out[(ri, ra)] = (pi, pa)
+            claimed.add((pi, pa))
     return out
 
 

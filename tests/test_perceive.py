@@ -191,3 +191,14 @@ def test_catalog_patterns_compile_and_names_are_unique():
     for g in GROUPS:
         assert compiled(g.smarts).GetNumAtoms() > 0
     assert len(set(GROUP_NAMES)) == len(GROUP_NAMES)
+
+
+def test_a_base_among_the_reactants_is_not_mapped_onto_the_product():
+    # the N-CH2-CH3 of triethylamine fits the N-CH2-CH2 of the sulfonamide too; the amine that
+    # carries the whole of that part holds those product atoms
+    from chemcheck.changes import new_bonds_at_nitrogen
+    from chemcheck.reaction import parse_reaction
+
+    rxn = parse_reaction("CCN(CC)CC.Cc1ccc(S(=O)(=O)Cl)cc1.NCCc1ccccc1>>Cc1ccc(cc1)S(=O)(=O)NCCc1ccccc1")
+    [nb] = new_bonds_at_nitrogen(rxn)
+    assert nb.reactant == 2 and nb.kind_before == "primary_amine" and nb.kind_after == "sulfonamide"

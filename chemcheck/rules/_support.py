@@ -69,6 +69,11 @@ def amount_mmol(ctx: Context, comp: Component, nominal: float = 1.0) -> tuple[fl
         row = st.row_for(comp.index)
         if row is not None and row.mmol is not None:
             return row.mmol, False
+        if row is not None and row.equiv is not None:
+            # equivalents stated with no absolute amount anywhere: relative to the nominal
+            # 1 equiv assumed for the others (0.5 equiv of base is half of what is needed)
+            ref = st.reference.mmol if st.reference is not None and st.reference.mmol else 1.0
+            return row.equiv * ref * nominal, True
         if st.reference is not None and st.reference.mmol:
             return st.reference.mmol * nominal, True
     return nominal, True

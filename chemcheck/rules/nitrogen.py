@@ -315,7 +315,9 @@ def acid_scavenger_short(ctx: Context):
                 f"the amine: K ≈ 10^{k:.1f}."
             )
         if bases:
-            ref = n_e
+            # in the chemist's equivalents: relative to the reference row of the table
+            st = ctx.stoichiometry
+            ref = st.reference.mmol if st is not None and st.reference is not None and st.reference.mmol else n_e
             strongest = max(bases, key=lambda b: b.pka)
             eq = sum(b.mmol for b in bases if b.atom == strongest.atom and b.component.index == strongest.component.index) / ref
             if strongest.pka < taken.pka - 1.5:
