@@ -215,6 +215,21 @@ def balance(reaction: Reaction) -> Balance:
     return Balance(drawn_ok, ok, {c.index: k for c, k in zip(species, coeffs)}, list(missing), dict(residual), charge)
 
 
+def _reagent_and_by_product(diff: Counter, q: int, bps, sources, lookup) -> list[Missing] | None:
+    for k in (1, 2, 3):
+        for name, formula, vec, rq in bps:
+            if rq or not _cut_from(name, sources["reactant"], "reactant"):
+                continue
+            rest = Counter(diff)
+            rest.update({e: k * n for e, n in vec.items()})  # update keeps negative counts
+            rest = Counter({e: v for e, v in rest.items() if v})
+            if rest and all(v > 0 for v in rest.values()):
+                right = lookup(rest, q, "product")
+                if right and len(right) == 1:
+                    return [Missing(name, formula, k, "reactant"), *right]
+    return None
+
+
 _ACIDS = frozenset({
     "HCl", "HBr", "HI", "HF", "acetic acid", "trifluoroacetic acid", "p-toluenesulfonic acid",
     "methanesulfonic acid", "triflic acid", "H2SO4", "HNO3",
@@ -291,18 +306,10 @@ def _balance(reaction: Reaction) -> tuple:
                 found = lookup(pos, q, "product")
             elif neg and not pos:
                 found = lookup(neg, -q, "reactant")
-            elif extra == 0:
-                # a reagent left out on the left and a by-product on the right (a hydrolysis)
-                for name, formula, vec, rq in bps:
-                    if rq or not _cut_from(name, sources["reactant"], "reactant"):
-                        continue
-                    rest = diff + vec
-                    rest = Counter({e: v for e, v in rest.items() if v})
-                    if rest and all(v > 0 for v in rest.values()):
-                        right = lookup(rest, q, "product")
-                        if right and len(right) == 1:
-                            found = [Missing(name, formula, 1, "reactant"), *right]
-                            break
+            if found is None and extra == 0:
+                # a reagent left out on the left and a by-product on the right: a hydrolysis
+                # (water in, HCl out), a reduction (H2 or a hydride in, water out)
+                found = _reagent_and_by_product(diff, q, bps, sources, lookup)
             cand = None
             if found:
                 needed = sum(1 for m in found if m.side == "reactant")

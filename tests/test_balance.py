@@ -124,3 +124,15 @@ def test_a_base_among_the_reactants_leaves_as_its_salt():
     assert b.balanced
     assert got == [("the HCl salt of CCN(CC)CC (triethylamine)", 1, "product")]
     assert b.missing[0].formula == "C6H15N·HCl"
+
+
+def test_a_reduction_needs_hydrogen_and_releases_water():
+    # reductive amination: ketone + amine + H2 -> amine + H2O; nitro to amine: ArNO2 + 3 H2 ->
+    # ArNH2 + 2 H2O (textbook equations, common practice)
+    b, got = missing("Nc1ccccc1.O=C1CCCCC1>[Na+].[BH3-]C#N>C1CCC(Nc2ccccc2)CC1")
+    assert got == [("H2", 1, "reactant"), ("H2O", 1, "product")]
+    b, got = missing("O=[N+]([O-])c1ccc(C)cc1>[Pd]>Nc1ccc(C)cc1")
+    assert got == [("H2", 3, "reactant"), ("H2O", 2, "product")]
+    report = chemcheck.check("Nc1ccccc1.O=C1CCCCC1>[Na+].[BH3-]C#N>C1CCC(Nc2ccccc2)CC1")
+    [f] = report.by_rule("unbalanced-equation")
+    assert "H2 (or its equivalent from a reductant) is needed on the reactant side" in f.message

@@ -6,8 +6,13 @@ from ..balance import Missing
 from . import Context, rule
 
 
+def _name(m: Missing) -> str:
+    # a reduction drawn without its reductant: H2, or the hydride of a borohydride or a metal
+    return "H2 (or its equivalent from a reductant)" if m.name == "H2" and m.side == "reactant" else m.name
+
+
 def _names(items: list[Missing]) -> str:
-    parts = [f"{m.count} {m.name}" if m.count > 1 else m.name for m in items]
+    parts = [f"{m.count} {_name(m)}" if m.count > 1 else _name(m) for m in items]
     return parts[0] if len(parts) == 1 else ", ".join(parts[:-1]) + " and " + parts[-1]
 
 
@@ -22,8 +27,11 @@ def unbalanced_equation(ctx: Context):
     What it flags
         A drawn equation whose elements or charge differ between the two sides. When one or
         two common small molecules close the gap (HCl from an acylation, water from a
-        condensation, CO2 and tert-butanol from a Boc protection), it names them; otherwise
-        it gives the element difference.
+        condensation, CO2 and tert-butanol from a Boc protection, H2 in and water out of a
+        reductive amination, the salt of a base written among the reactants), it names them;
+        otherwise it gives the element difference. An organic by-product is named only when
+        a reactant holds it (methanol from a methyl ester, not from nowhere), so a product
+        drawn a carbon short shows as a difference rather than as a made-up by-product.
 
     Why it matters
         The by-product that is not drawn is often the one that matters: the HCl of an
