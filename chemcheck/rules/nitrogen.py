@@ -3,6 +3,9 @@
 from __future__ import annotations
 
 import math
+from functools import lru_cache
+
+from rdkit import Chem
 
 from ..acid_base import Acceptor, max_conversion, reaches
 from . import Context, rule
@@ -1015,6 +1018,144 @@ def _hazard_classes(ctx: Context, comp) -> set[str]:
     if "sulfonating" in out:
         out -= {"acid_chloride", "strong_acid"}  # the sulfonating-agent caution covers both
     return out
+
+
+# --------------------------------------------------------------------------- amides from free acids
+# Reagents and catalysts that turn a carboxylic acid into an acylating agent (or catalyse the
+# direct amidation), by structure: the classes of the reviews cited in the rule's docstring.
+_ACTIVATORS: tuple[tuple[str, str], ...] = (
+    ("carbodiimide", "[NX2]=[CX2]=[NX2]"),  # DCC, DIC, EDC
+    ("uronium or aminium salt", "[CX3](=[NX3+])([NX3])[$([OX2]),$([#7][#7])]"),  # HATU, HBTU, TBTU, COMU
+    ("phosphonium salt", "[PX4+][OX2][#7]"),  # BOP, PyBOP, PyAOP
+    ("phosphonic or phosphoric anhydride", "[PX4](=[OX1])[OX2][PX4](=[OX1])"),  # T3P
+    ("acyl or carbonyl azole", "[CX3](=[OX1])[nX3]"),  # CDI
+    ("chlorotriazine or triazinylammonium", "[$(c1(Cl)ncncn1),$(c1([NX4+])ncncn1)]"),  # CDMT, DMTMM
+    ("2-halopyridinium salt", "[F,Cl,Br,I]c[n+]"),  # Mukaiyama's reagent
+    ("inorganic acid halide", "[S,P;!$([S,P]-[#6])]([Cl,Br])"),  # SOCl2, POCl3, PCl5
+    ("acid halide", "[CX3](=[OX1])[Cl,Br,F]"),  # oxalyl chloride, a chloroformate (mixed anhydride)
+    ("sulfonyl halide", "[SX4](=[OX1])(=[OX1])[Cl,F]"),  # MsCl, TsCl (mixed anhydride)
+    ("anhydride", "[CX3,SX4](=[OX1])[OX2][CX3,SX4]=[OX1]"),  # Boc2O, Piv2O (mixed anhydride)
+    ("boron acid catalyst", "[BX3]([OX2])[OX2]"),  # boric and boronic acids, borate esters
+    ("group 4 metal catalyst", "[Ti,Zr,Hf]"),  # Ti(OiPr)4, ZrCl4
+    ("silane or silyl reagent", "[Si]([Cl,$([OX2][CX3]=O),$([NX3])])"),  # chlorosilanes, silyl esters
+)
+
+
+_FORMYL = Chem.MolFromSmarts("[CX3H1](=[OX1])[OX2H1,OX1-]")
+
+
+@lru_cache(maxsize=1)
+def _activator_queries() -> tuple[tuple[str, Chem.Mol], ...]:
+    return tuple((name, Chem.MolFromSmarts(sm)) for name, sm in _ACTIVATORS)
+
+
+def _activator(comp) -> str | None:
+    for name, q in _activator_queries():
+        if comp.mol.HasSubstructMatch(q):
+            return name
+    return None
+
+
+@rule(id="amide-from-unactivated-acid", title="Amide drawn from a carboxylic acid with nothing to activate it", severity="warning")
+def amide_from_unactivated_acid(ctx: Context):
+    """A carboxylic acid and an amine drawn going to the amide with no coupling agent.
+
+    What it flags
+        A reaction in which an amine's nitrogen is drawn as an amide and the acyl group comes
+        from a free carboxylic acid (or its carboxylate salt), while no reactant or agent can
+        activate that acid: no carbodiimide, uronium, aminium or phosphonium salt, phosphonic
+        anhydride, carbonyl azole, chlorotriazine, 2-halopyridinium salt, acid halide, inorganic
+        acid chloride, sulfonyl chloride or anhydride (mixed anhydride methods), and no boron,
+        titanium or zirconium catalyst. Formic acid is left out: it formylates amines on warming
+        by itself.
+
+    Why it matters
+        An amine and a carboxylic acid first exchange a proton: the ammonium carboxylate salt
+        forms at once (K = 10^(pKa(BH+) − pKa(acid)), about 10^5 for an alkylamine and a
+        carboxylic acid), and a carboxylate is no acylating agent. Without activation the amide
+        forms only when the salt is heated above about 160 °C with loss of water, conditions few
+        substrates survive. Anilines are protonated less, but the acid is still not electrophilic
+        enough.
+
+    Example
+        ``CC(=O)O.NCc1ccccc1>>CC(=O)NCc1ccccc1``: benzylammonium acetate, not the amide.
+
+    Use instead
+        Activate the acid: a carbodiimide (EDC·HCl with HOBt or Oxyma), a uronium or
+        phosphonium reagent (HATU, PyBOP) with DIPEA, CDI or T3P; or make the acid chloride
+        first (SOCl2, or oxalyl chloride with a drop of DMF). Write the coupling agent among the
+        agents so the check sees it. A thermal or catalytic direct amidation is a deliberate
+        choice: then the warning can be acknowledged.
+
+    References
+        C. A. G. N. Montalbetti, V. Falque, Tetrahedron 2005, 61, 10827 (amide bond formation
+        and peptide coupling). E. Valeur, M. Bradley, Chem. Soc. Rev. 2009, 38, 606 (amide bond
+        formation: beyond the myth of coupling reagents). H. Charville, D. Jackson, G. Hodges,
+        A. Whiting, Chem. Commun. 2010, 46, 1813 (catalytic and thermal direct amidation).
+    """
+    r = amide_from_unactivated_acid.rule
+    rxn = ctx.reaction
+    if not rxn.products:
+        return
+    # formic acid formylates amines on warming by itself (a mixed anhydride is not needed)
+    acids = [
+        c for c in rxn.reactants
+        if ctx.perception(c).has("carboxylic_acid", "carboxylate") and not c.mol.HasSubstructMatch(_FORMYL)
+    ]
+    if not acids:
+        return
+    if any(_activator(c) for c in rxn.reactants + rxn.agents if c not in acids):
+        return
+    for nb in changed_nitrogens(ctx):
+        if nb.kind_after != "amide" or nb.kind_before == "amide":
+            continue
+        amine = rxn.components[nb.reactant]
+        if amine in acids:
+            continue  # the same molecule (a lactam from an amino acid): ring closure, not counted here
+        product = rxn.components[nb.product]
+        source = _acyl_source(ctx, product, nb, acids)
+        if source is None:
+            continue
+        acid, acid_atom = source
+        site = next((s for s in ctx.sites(amine) if s.atom_index == nb.reactant_atom), None)
+        pka = site.pka if site is not None and site.pka is not None else None
+        acid_pka = 4.8  # a typical carboxylic acid (acetic acid 4.76, CRC)
+        if pka is not None and pka > acid_pka + 2:
+            salt = (
+                f"they exchange a proton at once (K ≈ 10^{pka - acid_pka:.0f}): the ammonium carboxylate salt forms, "
+                "and a carboxylate does not acylate an amine."
+            )
+        else:
+            salt = "the acid is not electrophilic enough to acylate the amine, even where it protonates it only in part."
+        yield r.finding(
+            f"{amine.label} is drawn acylated by the carboxylic acid {acid.label}, but nothing here activates the "
+            f"acid: {salt} Without a coupling agent the amide forms only on heating the salt above about 160 °C.",
+            atoms=[(amine.index, nb.reactant_atom), (acid.index, acid_atom)],
+            fix="Add a coupling agent (EDC·HCl with HOBt or Oxyma, HATU or PyBOP with DIPEA, CDI or T3P) to the "
+            "agents, or make the acid chloride first (SOCl2, or oxalyl chloride with a drop of DMF).",
+        )
+        return
+
+
+def _acyl_source(ctx: Context, product, nb, acids):
+    """The acid (and its carboxyl carbon) whose acyl group the new amide N carries: the product
+    atom bound to the N that maps back to an acid's carboxyl carbon."""
+    from ..changes import atom_correspondence
+
+    back = {v: k for k, v in atom_correspondence(ctx.reaction).items()}
+    n = product.mol.GetAtomWithIdx(nb.product_atom)
+    for x in n.GetNeighbors():
+        origin = back.get((product.index, x.GetIdx()))
+        if origin is None:
+            continue
+        comp_idx, atom_idx = origin
+        for acid in acids:
+            if acid.index != comp_idx:
+                continue
+            for g in ctx.perception(acid).groups_named("carboxylic_acid", "carboxylate"):
+                if g.centre == atom_idx:
+                    return acid, atom_idx
+    return None
 
 
 @rule(id="hazard-caution", title="Hazardous reagent: usual cautions", severity="info")
