@@ -120,17 +120,17 @@ def _accuracy(path, cls=None):
 
 # Regression guards just above the accuracy measured when the methods landed
 # (docs/basicity.md). Of the basicity issue's goals, overall (0.5) and anilines (0.3) are met;
-# pyridines (0.3) are not yet (0.38).
+# pyridines (0.3) are not yet (0.37).
 @pytest.mark.parametrize(
     "classes,limit",
     [
-        (None, 0.49),
+        (None, 0.47),
         (("aniline_primary",), 0.25),
         (("aniline_primary", "aniline_secondary", "aniline_tertiary"), 0.32),
-        (("azine_polyaza",), 0.66),
+        (("azine_polyaza",), 0.64),
         (("other_heteroaromatic",), 0.56),
         (("aliphatic_primary", "aliphatic_secondary", "aliphatic_tertiary"), 0.40),
-        (("pyridine",), 0.41),
+        (("pyridine",), 0.39),
         (("imidazole",), 0.53),
         (("amidine_guanidine",), 0.47),
     ],
@@ -777,3 +777,41 @@ def test_an_acylated_n_withdraws_more_than_an_alkylated_one():
     _, methyl = _first("CN1CCNCC1")
     assert abs(acetyl - 7.94) <= 0.3
     assert acetyl < methyl - 0.8
+
+
+def test_a_twisted_para_nitro_group_on_a_pyridine_withdraws_no_more_than_a_planar_one():
+    # Para to a pyridine-type N a nitro group acts by its field effect alone (its resonance
+    # cannot reach the in-plane lone pair); methyl groups beside it twist it out of the ring
+    # plane, which takes no resonance away that was counted, so they only add their own small
+    # donation: 3-methyl- and 3,5-dimethyl-4-nitropyridine are stronger bases than
+    # 4-nitropyridine (Perrin 1965, from memory: about 2.2 and 2.5 against 1.6)
+    base = first_protonation("O=[N+]([O-])c1ccncc1")[1]
+    one = first_protonation("Cc1cnccc1[N+](=O)[O-]")[1]
+    two = first_protonation("Cc1cncc(C)c1[N+](=O)[O-]")[1]
+    assert base < one < two
+    assert two - base >= 0.6
+
+
+def test_a_polar_group_further_out_on_an_alkyl_chain_still_withdraws():
+    # Taft and Lewis (J. Am. Chem. Soc. 1958, 80, 2436): sigma_I(X) = 0.45 sigma*(CH2X), with
+    # the attenuation of 0.4 per carbon; an OH two carbons out on a pyridine's alkyl group
+    # lowers its pKa by a few tenths (pyridine-2-ethanol against 2-ethylpyridine, about 5.3
+    # against 5.9, Perrin 1965, from memory), one carbon further out by less
+    ethyl = first_protonation("CCc1ccncc1")[1]
+    hydroxyethyl = first_protonation("OCCc1ccncc1")[1]
+    hydroxypropyl = first_protonation("OCCCc1ccncc1")[1]
+    assert 0.1 <= ethyl - hydroxyethyl <= 0.5
+    assert 0.0 < ethyl - hydroxypropyl < ethyl - hydroxyethyl
+    # a plain alkyl chain adds nothing: butyl like ethyl (CRC, from memory: 6.02 against 6.02)
+    assert abs(first_protonation("CCCCc1ccncc1")[1] - ethyl) < 0.05
+
+
+def test_the_group_on_a_ring_n_of_a_pyrimidinone_acts_through_its_sigma_star():
+    # as on the pyrrole-type N of an azole: a larger alkyl group gives a little more, an
+    # electron-withdrawing one takes basicity away (Taft sigma*: n-Bu -0.13, CH2CF3 +0.92,
+    # Perrin, Dempsey & Serjeant 1981, from memory)
+    methyl = first_protonation("Cn1cccnc1=O")[1]
+    butyl = first_protonation("CCCCn1cccnc1=O")[1]
+    trifluoroethyl = first_protonation("FC(F)(F)Cn1cccnc1=O")[1]
+    assert 0.1 <= butyl - methyl <= 0.4
+    assert methyl - trifluoroethyl >= 1.5

@@ -574,12 +574,16 @@ def _hammett_sum(
             o, sg = _oxo_or_nr(key, d)
             ortho += o
             sigma += sg
+            if key == "ring_nR" and not five_ring:
+                ortho += _ring_n_alkyl(mol, ring, idx, beside=d == 1)
             continue
         if key.startswith("ring_"):
             sigma += ring_hetero
             continue
         if d == 1:
             term = ortho_table.get(key, default_ortho if key != "H" else 0.0)
+            if key in ("alkyl", "tBu"):
+                sigma += _remote_inductive(mol, ring, idx)  # acts through sigma, as from meta
             if key in K.BETWEEN_AZA and _aza_beside(mol, ring, idx, centre):
                 term += K.BETWEEN_AZA[key]
             ortho += term
@@ -591,11 +595,55 @@ def _hammett_sum(
                 sg += K.DONOR_META_SHARE * (K.DONOR_META_FIELD[key] - sg)
             if d == 2 and any(mol.GetBondBetweenAtoms(a, centre) for a in _aza_beside(mol, ring, idx, centre)):
                 sg += K.ALPHA_AZA_RESONANCE * (_sigma_for(key, 3, para_minus) - sg)
-            term = _twisted_sigma(mol, ring, centre, key, d, sg)
+            if d == 3 and para_minus is None and key in _PI_ACCEPTORS:
+                term = sg  # already its field effect alone: a twist takes no resonance away
+            else:
+                term = _twisted_sigma(mol, ring, centre, key, d, sg)
+            if key in ("alkyl", "tBu"):
+                term += _remote_inductive(mol, ring, idx)
             sigma += term
             if donors is not None and key in _PI_DONORS and d == 3:
                 donors.append((idx, "sigma", term))
     return ortho, sigma
+
+
+def _remote_inductive(mol: Chem.Mol, ring: list[int], idx: int) -> float:
+    """The inductive sigma of polar groups further out on an open alkyl chain on ring atom
+    ``idx`` (2-(2-hydroxyethyl)pyridine, 3-(3-chloropropyl)aniline), which the Hammett key
+    "alkyl" leaves out: Taft's relation sigma_I(X) = 0.45 sigma*(CH2X) with X the whole chain,
+    sigma*(CH2X) = 0.4 (one more carbon) times the Taft sigma* of the group at the chain's
+    first atom (R. W. Taft, I. C. Lewis, J. Am. Chem. Soc. 1958, 80, 2436; the attenuation of
+    Perrin, Dempsey & Serjeant). Electron-withdrawing chains only: the donation of plain alkyl
+    groups is in their Hammett constants."""
+    ring_set = set(ring)
+    atom = mol.GetAtomWithIdx(idx)
+    total = 0.0
+    for x in atom.GetNeighbors():
+        if x.GetIdx() in ring_set or x.GetAtomicNum() != 6 or x.IsInRing() or x.GetIsAromatic():
+            continue
+        s = group_sigma_star(mol, x, atom, path=ring_set)
+        total += K.SIGMA_I_PER_SIGMA_STAR * K.ATTENUATION * max(0.0, s)
+    return total
+
+
+def _ring_n_alkyl(mol: Chem.Mol, ring: list[int], idx: int, beside: bool) -> float:
+    """The alkyl group on a ring N-R of a six-membered ring (a 1-alkylpyrimidin-2-one, an
+    N-alkylpyridone) acts through its Taft sigma* relative to methyl, as on the pyrrole-type
+    N of an azole (constants.AZOLE_N_RHO_STAR); next to the site only an electron-withdrawing
+    group counts (a larger alkyl group there crowds the N-H instead)."""
+    ring_set = set(ring)
+    atom = mol.GetAtomWithIdx(idx)
+    total = 0.0
+    for x in atom.GetNeighbors():
+        if x.GetIdx() in ring_set or x.GetAtomicNum() != 6 or x.GetIsAromatic() or _carbonyl_kind(mol, x):
+            continue
+        if any(b.GetBondType() != Chem.BondType.SINGLE for b in x.GetBonds()):
+            continue
+        if mol.GetRingInfo().AreAtomsInSameRing(idx, x.GetIdx()):
+            continue  # a fused saturated ring: its atoms lead back to the ring system
+        star = group_sigma_star(mol, x, atom, path=ring_set)
+        total -= K.AZOLE_N_RHO_STAR * (max(star, 0.0) if beside else star)
+    return total
 
 
 def _peri_groups(mol: Chem.Mol, ring: list[int], site: int) -> list[Chem.Atom]:
