@@ -361,13 +361,20 @@ def ring_substitution_regiochemistry(ctx: Context):
     if free_anilines and acidic:
         n = free_anilines[0]
         mol = _protonate(mol, n.atom_index)
+        has_nh = sub.mol.GetAtomWithIdx(n.atom_index).GetTotalNumHs() > 0
         yield r.finding(
             f"In {klass.split()[0]} conditions the strong acid protonates the aniline nitrogen of {sub.label} "
-            "(pKa of the anilinium about 4.6): the anilinium ion directs meta on a deactivated ring, and nitric acid "
-            "also oxidises free anilines to tars.",
+            f"(pKa of its conjugate acid {n.pka:.1f}): the anilinium ion directs meta on a deactivated ring"
+            + (", and nitric acid also oxidises free anilines to tars." if klass == "nitration" else "."),
             atoms=[(sub.index, n.atom_index)],
-            fix=f"Protect the amine as its acetamide (Ac2O), run the {klass}, then hydrolyse the amide "
-            "(the acetamide directs ortho/para, mainly para).",
+            fix=(
+                f"Protect the amine as its acetamide (Ac2O), run the {klass}, then hydrolyse the amide "
+                "(the acetamide directs ortho/para, mainly para)."
+                if has_nh
+                else "This nitrogen carries no N–H and cannot be protected as an amide: in strong acid expect "
+                "mainly the meta product; for the ortho or para isomer, introduce the amino group after the "
+                f"{klass} (for example by substitution of a para-fluoro group)."
+            ),
         )
     if free_anilines and klass == "bromination" and not la:
         yield r.finding(
