@@ -110,6 +110,10 @@ ATTENUATION = 0.4  # per intervening carbon [PDS]
 # Taft and Lewis: sigma_I(X) = 0.45 sigma*(CH2X) (R. W. Taft, I. C. Lewis, J. Am. Chem. Soc. 1958,
 # 80, 2436); it turns the sigma* of a chain into the inductive sigma of a ring substituent
 SIGMA_I_PER_SIGMA_STAR = 0.45
+# The share of the amine rho* (about 3.1 [PDS]) that reaches an amino N conjugated with a
+# protonated ring N, which carries about 0.4 of the charge (the amidinium-like cation of
+# 2- and 4-aminopyridines): our estimate
+AMINO_N_RHO_STAR = 1.2
 # The sigma* of an electron-withdrawing group (from ester hydrolysis rates) understates its pull
 # on an ammonium ion close by in water: with the Taft slopes alone, amines carrying nitrile,
 # ester, halogen or alkoxy groups come out 0.5-1 unit too basic (2-chloroethylamine 8.79,

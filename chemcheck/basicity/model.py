@@ -580,6 +580,8 @@ def _hammett_sum(
         if key.startswith("ring_"):
             sigma += ring_hetero
             continue
+        if key in ("NHR", "NR2") and d in (1, 3) and donors is not None:
+            ortho += _amino_n_withdrawal(mol, ring, idx)
         if d == 1:
             term = ortho_table.get(key, default_ortho if key != "H" else 0.0)
             if key in ("alkyl", "tBu"):
@@ -605,6 +607,41 @@ def _hammett_sum(
             if donors is not None and key in _PI_DONORS and d == 3:
                 donors.append((idx, "sigma", term))
     return ortho, sigma
+
+
+def _chain_sigma_star(mol: Chem.Mol, x: Chem.Atom, parent: Chem.Atom, ring: list[int]) -> float:
+    """Taft sigma* of the group at ``x`` (bound to ``parent``), kept off the aromatic ring; a
+    substituent reached along both paths round a ring of the group (a glycosyl group) counts
+    once, as for amines."""
+    ring_set = set(ring)
+    claimed = None
+    if x.IsInRing():
+        claimed = {"survey": True, "depth": {}, "done": set()}
+        group_sigma_star(mol, x, parent, path=ring_set, claimed=claimed)
+        claimed["survey"] = False
+    return group_sigma_star(mol, x, parent, path=ring_set, claimed=claimed)
+
+
+def _amino_n_withdrawal(mol: Chem.Mol, ring: list[int], idx: int) -> float:
+    """An amino group ortho or para to a ring N carries part of the cation's charge (an
+    amidinium-like ion), so an electron-withdrawing group on that amino N lowers the pKa
+    through its Taft sigma*, with a share of the amine rho*: constants.AMINO_N_RHO_STAR.
+    Alkyl groups are in the Hammett constants of NHR and NR2 already; only sigma* above
+    methyl's 0 counts."""
+    ring_set = set(ring)
+    atom = mol.GetAtomWithIdx(idx)
+    total = 0.0
+    for n in atom.GetNeighbors():
+        if n.GetIdx() in ring_set or n.GetAtomicNum() != 7 or n.GetIsAromatic():
+            continue
+        for x in n.GetNeighbors():
+            if x.GetIdx() == idx or x.GetAtomicNum() != 6 or x.GetIsAromatic():
+                continue
+            if mol.GetRingInfo().AreAtomsInSameRing(idx, x.GetIdx()):
+                continue
+            star = _chain_sigma_star(mol, x, n, ring)
+            total -= K.AMINO_N_RHO_STAR * max(0.0, star)
+    return total
 
 
 def _remote_inductive(mol: Chem.Mol, ring: list[int], idx: int) -> float:
@@ -641,7 +678,7 @@ def _ring_n_alkyl(mol: Chem.Mol, ring: list[int], idx: int, beside: bool) -> flo
             continue
         if mol.GetRingInfo().AreAtomsInSameRing(idx, x.GetIdx()):
             continue  # a fused saturated ring: its atoms lead back to the ring system
-        star = group_sigma_star(mol, x, atom, path=ring_set)
+        star = _chain_sigma_star(mol, x, atom, ring)
         total -= K.AZOLE_N_RHO_STAR * (max(star, 0.0) if beside else star)
     return total
 
