@@ -463,6 +463,113 @@ def ring_too_deactivated(ctx: Context):
         )
 
 
+# --------------------------------------------------------------------------- Friedel–Crafts without a catalyst
+# Strong protic acids that promote Friedel–Crafts acylation in place of a Lewis acid (triflic
+# acid, polyphosphoric acid, Eaton's reagent, HF, sulfuric acid): a P-O-P anhydride, a sulfonic
+# acid, HF or a perfluoroalkanesulfonic acid among the components.
+_FC_ACIDS = tuple(
+    Chem.MolFromSmarts(sm)
+    for sm in (
+        "[PX4](=O)[OX2][PX4]=O",  # PPA, P4O10 (Eaton's reagent with MsOH)
+        "[SX4](=O)(=O)[OX2H1]",  # triflic, methanesulfonic, sulfuric acid
+        "[FH1]",  # HF
+    )
+)
+# pi-excessive heteroarenes that are acylated without a catalyst (pyrroles, indoles: an
+# NH or N-alkyl five-membered ring N with its lone pair in the ring)
+_PI_EXCESSIVE = Chem.MolFromSmarts("[nX3;r5;!$(n-[CX3]=O);!$(n-S(=O)=O)]")
+
+
+@rule(id="ring-acylation-without-lewis-acid", title="Ring acylation drawn with nothing to promote it", severity="warning")
+def ring_acylation_without_lewis_acid(ctx: Context):
+    """A Friedel–Crafts acylation drawn without a Lewis acid or a strong acid.
+
+    What it flags
+        An aromatic carbon of a reactant drawn bonded to the acyl carbon of an acid halide or
+        anhydride, while no Lewis acid (AlCl3, FeCl3, BF3, SnCl4, ZnCl2, TiCl4, metal
+        triflates, ...) and no strong protic acid that promotes the reaction (triflic,
+        methanesulfonic or sulfuric acid, polyphosphoric acid, HF) is present. Pyrroles and
+        indoles, which are acylated without a catalyst, are left out.
+
+    Why it matters
+        An acid chloride or anhydride is not electrophilic enough to attack a benzene ring: the
+        acylium ion that does forms only with a Lewis acid (usually at least one equivalent,
+        since the product ketone binds it) or a superacid. With an amine or alcohol present
+        the acylating agent goes to N or O instead; with pyridines it gives an N-acylpyridinium
+        salt.
+
+    Example
+        ``COc1ccccc1.CC(=O)Cl>ClCCl>COc1ccc(C(C)=O)cc1``: no catalyst, no ketone.
+
+    Use instead
+        Add the Lewis acid (AlCl3, 1.1 equiv or more for acylation; FeCl3, ZnCl2 or a metal
+        triflate for activated rings), or run it in a strong acid (polyphosphoric acid,
+        Eaton's reagent, triflic acid). Write the promoter among the agents so the check
+        sees it.
+
+    References
+        G. A. Olah, *Friedel–Crafts and Related Reactions*, Wiley 1963-65. J. Clayden,
+        N. Greeves, S. Warren, *Organic Chemistry*, 2nd ed., OUP 2012, ch. 21.
+    """
+    r = ring_acylation_without_lewis_acid.rule
+    rxn = ctx.reaction
+    if not rxn.products:
+        return
+    comps = rxn.reactants + rxn.agents
+    if any(ctx.perception(c).has("lewis_acid") for c in comps):
+        return
+    if any(c.mol.HasSubstructMatch(q) for c in comps for q in _FC_ACIDS):
+        return
+    acyl = [(c, g) for c in rxn.reactants for g in ctx.perception(c).groups_named("acid_halide", "anhydride")]
+    if not acyl:
+        return
+    from ..changes import atom_correspondence, new_bonds_at
+
+    back = {v: k for k, v in atom_correspondence(rxn).items()}
+    centres = {(c.index, g.centre) for c, g in acyl}
+    for nb in new_bonds_at(rxn, 6):
+        sub = rxn.components[nb.reactant]
+        ratom = sub.mol.GetAtomWithIdx(nb.reactant_atom)
+        if not ratom.GetIsAromatic() or (sub.index, nb.reactant_atom) in centres:
+            continue
+        product = rxn.components[nb.product]
+        partner = next(
+            (back.get((product.index, p)) for p in nb.partners if back.get((product.index, p)) in centres), None
+        )
+        if partner is None:
+            # the acyl group left unmapped (two acetyl groups in play): a new C=O carbon on the ring
+            carbonyl = any(
+                product.mol.GetAtomWithIdx(p).GetAtomicNum() == 6
+                and back.get((product.index, p)) is None
+                and any(
+                    b.GetBondType() == Chem.BondType.DOUBLE and b.GetOtherAtom(product.mol.GetAtomWithIdx(p)).GetAtomicNum() == 8
+                    for b in product.mol.GetAtomWithIdx(p).GetBonds()
+                )
+                for p in nb.partners
+            )
+            if not carbonyl:
+                continue
+            partner = (acyl[0][0].index, acyl[0][1].centre)
+        if sub.mol.HasSubstructMatch(_PI_EXCESSIVE):
+            continue  # pyrroles and indoles: acylated without a catalyst
+        agent = rxn.components[partner[0]]
+        azine = any(s_.kind == "pyridine_type" for s_ in ctx.sites(sub))
+        yield r.finding(
+            f"{sub.label} is drawn acylated on its ring by {agent.label}, but no Lewis acid or strong acid is "
+            "present: without one no acylium ion forms and the ring does not react."
+            + (
+                " Its ring N takes the acylating agent instead (an N-acylpyridinium salt); even with a Lewis acid "
+                "an electron-poor azine ring is not acylated on carbon."
+                if azine else ""
+            ),
+            atoms=[(sub.index, nb.reactant_atom), (agent.index, partner[1])],
+            fix="Add a Lewis acid (AlCl3, at least 1.1 equiv for an acylation; FeCl3, ZnCl2 or a metal triflate for "
+            "an activated ring) or run it in polyphosphoric acid, Eaton's reagent or triflic acid, and write it among "
+            "the agents.",
+        )
+        return
+
+
 # --------------------------------------------------------------------------- condensations
 def _condensation_candidates(carbonyl, amine_comp, n_idx: int, kind: str) -> list[Candidate]:
     from rdkit.Chem import rdChemReactions
