@@ -41,7 +41,14 @@ class NewBond:
 
 
 @lru_cache(maxsize=2048)
-def _mcs_map(r_smiles: str, p_smiles: str) -> tuple[tuple[int, int], ...]:
+def _mcs_map(r_smiles: str, p_smiles: str, avoid: frozenset = frozenset()) -> tuple[tuple[int, int], ...]:
+    """Pairs (reactant atom, product atom) of the closest placement of the reactant's common
+    part in the product, on product atoms outside ``avoid`` (those another reactant holds)."""
+
+    def best_of(r, p, rm, placements):
+        free = [pm for pm in placements if not avoid.intersection(pm)]
+        return min(free, key=lambda pm: _placement_cost(r, p, rm, pm)) if free else None
+
     with _rdlog.captured():
         r = Chem.MolFromSmiles(r_smiles)
         p = Chem.MolFromSmiles(p_smiles)
@@ -50,9 +57,10 @@ def _mcs_map(r_smiles: str, p_smiles: str) -> tuple[tuple[int, int], ...]:
         # the whole reactant inside the product (an amine that is acylated or alkylated): the
         # common substructure is the reactant itself, found without the MCS search
         whole = p.GetSubstructMatches(r, uniquify=False, maxMatches=200)
-        if whole:
-            rm = tuple(range(r.GetNumAtoms()))
-            return tuple(zip(rm, min(whole, key=lambda pm: _placement_cost(r, p, rm, pm))))
+        rm = tuple(range(r.GetNumAtoms()))
+        best = best_of(r, p, rm, whole)
+        if best is not None:
+            return tuple(zip(rm, best))
         # the reactant without one terminal halogen (an acid or sulfonyl chloride, an alkyl
         # halide that has reacted): again no search is needed
         for atom in r.GetAtoms():
@@ -65,9 +73,10 @@ def _mcs_map(r_smiles: str, p_smiles: str) -> tuple[tuple[int, int], ...]:
             core.UpdatePropertyCache(strict=False)
             Chem.FastFindRings(core)
             found = p.GetSubstructMatches(core, uniquify=False, maxMatches=200)
-            if found:
-                rm = tuple(i for i in range(r.GetNumAtoms()) if i != x)
-                return tuple(zip(rm, min(found, key=lambda pm: _placement_cost(r, p, rm, pm))))
+            rm = tuple(i for i in range(r.GetNumAtoms()) if i != x)
+            best = best_of(r, p, rm, found)
+            if best is not None:
+                return tuple(zip(rm, best))
         res = rdFMCS.FindMCS(
             [r, p],
             timeout=MCS_TIMEOUT_S,
@@ -86,9 +95,8 @@ def _mcs_map(r_smiles: str, p_smiles: str) -> tuple[tuple[int, int], ...]:
         pms = p.GetSubstructMatches(q, uniquify=False, maxMatches=200)
     if not rm or not pms:
         return ()
-
-    best = min(pms, key=lambda pm: _placement_cost(r, p, rm, pm))
-    return tuple(zip(rm, best))
+    best = best_of(r, p, rm, pms)
+    return tuple(zip(rm, best)) if best is not None else ()
 
 
 def _placement_cost(r: Chem.Mol, p: Chem.Mol, rm, pm) -> int:
@@ -125,6 +133,7 @@ def _correspondence(reaction: Reaction) -> dict[tuple[int, int], tuple[int, int]
                     out[(r.index, a.GetIdx())] = prod_by_map[a.GetAtomMapNum()]
         return out
     found: list[tuple[int, int, tuple]] = []  # (reactant, product, pairs)
+    keys: dict[int, tuple] = {}  # component -> canonical key
     for r in reaction.reactants:
         if r.sanitization != "full":
             continue
@@ -135,6 +144,7 @@ def _correspondence(reaction: Reaction) -> dict[tuple[int, int], tuple[int, int]
             rk, pk = canonical_key(r.mol), canonical_key(p.mol)
             if rk is None or pk is None:
                 continue
+            keys[r.index], keys[p.index] = rk, pk
             pairs = _mcs_map(rk[0], pk[0])
             if not pairs:
                 continue
@@ -153,6 +163,13 @@ def _correspondence(reaction: Reaction) -> dict[tuple[int, int], tuple[int, int]
     for ri, pi, pairs in sorted(found, key=lambda f: -len(f[2])):
         free = [(ra, pa) for ra, pa in pairs if (pi, pa) not in claimed]
         if len(free) < len(pairs):
+            # placed again on the atoms no other reactant holds (the acetyl group of acetic
+            # anhydride on the new ketone, not on the acetamide already there)
+            rk, pk = keys[ri], keys[pi]
+            taken = frozenset(c for c, o in enumerate(pk[1]) if (pi, o) in claimed)
+            again = _mcs_map(rk[0], pk[0], taken)
+            if len(again) > len(free):
+                free = [(rk[1][a], pk[1][b]) for a, b in again]
             heavy = reaction.components[ri].mol.GetNumHeavyAtoms()
             if len(free) < max(2, int(0.5 * heavy)):
                 continue

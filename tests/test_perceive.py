@@ -202,3 +202,24 @@ def test_a_base_among_the_reactants_is_not_mapped_onto_the_product():
     rxn = parse_reaction("CCN(CC)CC.Cc1ccc(S(=O)(=O)Cl)cc1.NCCc1ccccc1>>Cc1ccc(cc1)S(=O)(=O)NCCc1ccccc1")
     [nb] = new_bonds_at_nitrogen(rxn)
     assert nb.reactant == 2 and nb.kind_before == "primary_amine" and nb.kind_after == "sulfonamide"
+
+
+def test_a_reactant_that_loses_a_conflict_is_placed_again_on_free_atoms():
+    # acetic anhydride's acetyl fits the acetamide of the substrate as well as the new ketone;
+    # the acetanilide holds its own acetyl, so the anhydride maps onto the ketone
+    from chemcheck.changes import atom_correspondence
+    from chemcheck.reaction import parse_reaction
+
+    rxn = parse_reaction("CC(=O)Nc1ccccc1.CC(=O)OC(C)=O>>CC(=O)Nc1ccc(C(C)=O)cc1")
+    corr = atom_correspondence(rxn)
+    product = rxn.components[2].mol
+    anhydride_atoms = {pa for (ri, _ra), (_pi, pa) in corr.items() if ri == 1}
+    substrate_atoms = {pa for (ri, _ra), (_pi, pa) in corr.items() if ri == 0}
+    assert anhydride_atoms and not anhydride_atoms & substrate_atoms
+    # the ketone carbon (bonded to a ring carbon and to O) comes from the anhydride
+    ketone_c = [
+        a.GetIdx() for a in product.GetAtoms()
+        if a.GetAtomicNum() == 6 and any(n.GetIsAromatic() for n in a.GetNeighbors())
+        and any(n.GetAtomicNum() == 8 for n in a.GetNeighbors())
+    ]
+    assert ketone_c and ketone_c[0] in anhydride_atoms
