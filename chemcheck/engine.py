@@ -19,6 +19,43 @@ def _join_keys(amounts: dict[str, str] | None) -> list[str]:
     return [k for k in (amounts or {}) if "." in k]
 
 
+def _weighed_as_salt(text: str, rxn: Reaction, keys: list[str]) -> tuple[str, list[tuple[str, str]]]:
+    """Amounts keyed by a salt (``Cl.NCc1ccccc1``) of a free base drawn alone in the reaction
+    (``NCc1ccccc1``): the chemist weighed the salt. The reaction text with that component
+    written as the salt, and the (base, salt) pairs rewritten."""
+    from rdkit import Chem
+
+    from . import _rdlog
+    from .perceive import perceive
+
+    acids = {"hydrogen_halide", "sulfonic_acid", "perfluoro_acid", "carboxylic_acid", "nitric_acid", "sulfuric_acid"}
+    edits: list[tuple[int, int, str, str]] = []
+    for key in keys:
+        if rxn.find(key) is not None:
+            continue
+        parts = [p.strip() for p in key.split(".")]
+        for comp in rxn.reactants + rxn.agents:
+            if comp.text not in parts or "." in comp.text:
+                continue
+            others = [p for p in parts if p != comp.text]
+            ok = bool(others)
+            for other in others:
+                with _rdlog.captured():
+                    mol = Chem.MolFromSmiles(other)
+                if mol is None or not (perceive(mol).group_names & acids or Chem.GetFormalCharge(mol) < 0):
+                    ok = False
+            if ok and any(a.GetAtomicNum() == 7 for a in comp.mol.GetAtoms()):
+                edits.append((comp.span[0], comp.span[1], comp.text, key))
+                break
+    pairs = []
+    for start, end, base, salt in sorted(edits, reverse=True):
+        if text[start:end] != base:
+            continue
+        text = text[:start] + salt + text[end:]
+        pairs.append((base, salt))
+    return text, pairs[::-1]
+
+
 def check(reaction: str | Reaction, amounts: dict[str, str] | None = None) -> Report:
     """Check a reaction for known failure modes.
 
@@ -30,7 +67,14 @@ def check(reaction: str | Reaction, amounts: dict[str, str] | None = None) -> Re
         from .errors import AmountError
 
         raise AmountError(f"amounts must be a dict of component text to amount, not {type(amounts).__name__}")
-    rxn = reaction if isinstance(reaction, Reaction) else parse_reaction(reaction, join=_join_keys(amounts))
+    salts: list[tuple[str, str]] = []
+    if isinstance(reaction, Reaction):
+        rxn = reaction
+    else:
+        rxn = parse_reaction(reaction, join=_join_keys(amounts))
+        text, salts = _weighed_as_salt(reaction, rxn, _join_keys(amounts))
+        if salts:
+            rxn = parse_reaction(text, join=_join_keys(amounts))
     ctx = Context(rxn, amounts)
     for comp in rxn.components:
         comp.kind = ctx.perception(comp).kind if comp.role == "agent" else None
@@ -49,6 +93,20 @@ def check(reaction: str | Reaction, amounts: dict[str, str] | None = None) -> Re
                     fix="Check the drawing of this metal or hypervalent species.",
                 )
             )
+    for base, salt in salts:
+        comp = rxn.find(salt)
+        findings.append(
+            Finding(
+                rule="weighed-as-salt",
+                severity="info",
+                title="Amount given for the salt of a component",
+                message=f"The amount is given for {salt}, the salt of {base} as drawn in the reaction: the check "
+                f"reads the component as that salt ({comp.formula}, {comp.mw:.2f} g/mol), which converts the mass "
+                "weighed and needs a base to free the amine.",
+                atoms=(),
+                fix=f"Draw {salt} in the reaction, or give the amount of the free base {base}.",
+            )
+        )
     strict = bool(os.environ.get("CHEMCHECK_STRICT"))
     for r in registry().values():
         try:

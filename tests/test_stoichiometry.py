@@ -232,3 +232,24 @@ def test_scale_needs_amounts_and_one_target():
     with pytest.raises(chemcheck.ChemcheckError, match="exactly one"):
         scale(r, 2, target_mmol=5)
     assert scale(r, target_mmol=20.0).stoichiometry.limiting.mmol == pytest.approx(20.0, rel=REL)
+
+
+def test_an_amount_keyed_by_the_salt_of_a_drawn_free_base_reads_the_salt():
+    # the chemist drew benzylamine but weighed its hydrochloride: 1.44 g of C7H10ClN
+    # (143.62 g/mol, IUPAC standard atomic weights) is 10.03 mmol, not the 13.4 mmol that the
+    # free base's 107.15 g/mol would give; and the salt needs a base to free the amine
+    report = chemcheck.check(
+        "NCc1ccccc1.O=Cc1ccccc1>>C(=NCc1ccccc1)c1ccccc1",
+        amounts={"Cl.NCc1ccccc1": "1.44 g", "O=Cc1ccccc1": "1.0 equiv"},
+    )
+    row = report.stoichiometry.rows[0]
+    assert row.component.text == "Cl.NCc1ccccc1"
+    assert abs(row.mmol - 1440 / 143.62) < 0.01
+    [note] = report.by_rule("weighed-as-salt")
+    assert "Cl.NCc1ccccc1" in note.message and "NCc1ccccc1" in note.message
+    assert report.by_rule("amine-salt-not-freed")
+
+
+def test_an_amount_keyed_by_an_unrelated_mixture_is_still_an_error():
+    with pytest.raises(AmountError):
+        chemcheck.check("NCc1ccccc1.O=Cc1ccccc1>>C(=NCc1ccccc1)c1ccccc1", amounts={"CCO.NCc1ccccc1": "1.44 g"})
