@@ -654,13 +654,15 @@ def _remote_inductive(mol: Chem.Mol, ring: list[int], idx: int) -> float:
     groups is in their Hammett constants."""
     ring_set = set(ring)
     atom = mol.GetAtomWithIdx(idx)
-    total = 0.0
-    for x in atom.GetNeighbors():
-        if x.GetIdx() in ring_set or x.GetAtomicNum() != 6 or x.IsInRing() or x.GetIsAromatic():
-            continue
-        s = group_sigma_star(mol, x, atom, path=ring_set)
-        total += K.SIGMA_I_PER_SIGMA_STAR * K.ATTENUATION * max(0.0, s)
-    return total
+    return sum(_remote_inductive_of(mol, ring_set, atom, x) for x in atom.GetNeighbors() if x.GetIdx() not in ring_set)
+
+
+def _remote_inductive_of(mol: Chem.Mol, ring_set: set[int], atom: Chem.Atom, x: Chem.Atom) -> float:
+    """``_remote_inductive`` for the one chain that starts at ``x`` on ring atom ``atom``."""
+    if x.GetAtomicNum() != 6 or x.IsInRing() or x.GetIsAromatic():
+        return 0.0
+    s = group_sigma_star(mol, x, atom, path=ring_set)
+    return K.SIGMA_I_PER_SIGMA_STAR * K.ATTENUATION * max(0.0, s)
 
 
 def _ring_n_alkyl(mol: Chem.Mol, ring: list[int], idx: int, beside: bool) -> float:
@@ -1069,6 +1071,8 @@ def azine(mol: Chem.Mol, n_idx: int) -> tuple[float, str]:
             if key == "fused":
                 continue
             sm, sp, spm = K.HAMMETT.get(key, (0.0, 0.0, 0.0))
+            if key in ("alkyl", "tBu"):
+                sigma += _remote_inductive_of(mol, ring_set, atom, x)
             if idx in adjacent:
                 if key in _PI_ACCEPTORS and key not in ("SR", "SH") and pyrrole_n:
                     # conjugated with the lone pair of the ring's pyrrole-type N through the
