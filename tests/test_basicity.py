@@ -128,7 +128,7 @@ def _accuracy(path, cls=None):
         (("aniline_primary",), 0.25),
         (("aniline_primary", "aniline_secondary", "aniline_tertiary"), 0.32),
         (("azine_polyaza",), 0.63),
-        (("other_heteroaromatic",), 0.56),
+        (("other_heteroaromatic",), 0.53),
         (("aliphatic_primary", "aliphatic_secondary", "aliphatic_tertiary"), 0.40),
         (("pyridine",), 0.39),
         (("imidazole",), 0.47),
@@ -829,3 +829,13 @@ def test_an_electron_withdrawing_group_on_a_conjugated_amino_n_lowers_the_pka():
     propargyl = first_protonation("C#CCNc1ncccn1")[1]
     assert 0.3 <= methyl - methoxymethyl <= 1.0
     assert methyl - propargyl > methyl - methoxymethyl
+
+
+def test_a_saturated_ring_fused_on_an_azole_is_two_alkyl_groups_not_a_benzo_ring():
+    # benzimidazole 5.53 lies below imidazole 6.95 (Perrin 1965); the 4,5,6,7-tetrahydro
+    # compound carries two alkyl groups instead and lies above it, as 4,5-dimethylimidazole
+    # does (common practice: alkyl groups raise azole basicity)
+    imidazole = first_protonation("c1c[nH]cn1")[1]
+    assert first_protonation("c1nc2c([nH]1)CCCC2")[1] > imidazole
+    assert first_protonation("c1ccc2[nH]cnc2c1")[1] < imidazole
+    assert first_protonation("c1n[nH]c2c1CCCC2")[1] > first_protonation("c1cc[nH]n1")[1]

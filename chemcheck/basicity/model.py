@@ -1085,7 +1085,13 @@ def azine(mol: Chem.Mol, n_idx: int) -> tuple[float, str]:
                 sigma += sm
     # benzo (or other aromatic) fusion on the ring's carbons
     fused_atoms = [i for i in ring5 if mol.GetRingInfo().NumAtomRings(i) > 1 and mol.GetAtomWithIdx(i).GetAtomicNum() == 6]
-    if len(fused_atoms) >= 2:
+    # only an aromatic ring fused there is a benzo ring: a saturated one (a
+    # 4,5,6,7-tetrahydroindazole or -benzimidazole) is two alkyl groups, counted above
+    aromatic_fusion = any(
+        len(set(r) & set(fused_atoms)) >= 2 and set(r) != ring_set and all(mol.GetAtomWithIdx(i).GetIsAromatic() for i in r)
+        for r in mol.GetRingInfo().AtomRings()
+    )
+    if len(fused_atoms) >= 2 and aromatic_fusion:
         fused = _AZOLE_BENZO - K.AZOLE_RHO * (_fused_aza_sigma(mol, ring5, n_idx) + _fused_ring_sigma(mol, ring5, n_idx))
         # substituents on the fused ring (5-nitrobenzimidazoles) count as for quinolines; with
         # an amino group on the carbon between the basic N and the ring's other heteroatom the
