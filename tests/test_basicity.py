@@ -839,3 +839,15 @@ def test_a_saturated_ring_fused_on_an_azole_is_two_alkyl_groups_not_a_benzo_ring
     assert first_protonation("c1nc2c([nH]1)CCCC2")[1] > imidazole
     assert first_protonation("c1ccc2[nH]cnc2c1")[1] < imidazole
     assert first_protonation("c1n[nH]c2c1CCCC2")[1] > first_protonation("c1cc[nH]n1")[1]
+
+
+def test_a_donor_across_the_ring_n_r_of_a_pyrazole_conjugates_with_the_cation():
+    # the 1-methylpyrazolium ion has a resonance form Me-N1(+)=C5: an amino group on C5 makes
+    # it amidinium-like and raises the pKa well above that of 1-methylpyrazole (2.06, Perrin
+    # 1965, from memory), more than an amino group on C4, which conjugates with neither N
+    # (J. A. Joule, K. Mills, Heterocyclic Chemistry, 5th ed., Wiley 2010, ch. 22: aminoazoles)
+    parent = first_protonation("Cn1cccn1")[1]
+    c5 = first_protonation("Cn1nccc1N")[1]
+    c4 = first_protonation("Cn1cc(N)cn1")[1]
+    assert c5 - parent >= 2.0
+    assert c5 > c4

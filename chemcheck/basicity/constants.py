@@ -110,6 +110,11 @@ ATTENUATION = 0.4  # per intervening carbon [PDS]
 # Taft and Lewis: sigma_I(X) = 0.45 sigma*(CH2X) (R. W. Taft, I. C. Lewis, J. Am. Chem. Soc. 1958,
 # 80, 2436); it turns the sigma* of a chain into the inductive sigma of a ring substituent
 SIGMA_I_PER_SIGMA_STAR = 0.45
+# In a 1-substituted pyrazolium or 1,2,4-triazolium ion the ring N-R beside the protonated N
+# carries part of the charge (the resonance form R-N1(+)=C5); a pi-donor on C5 makes that an
+# amidinium-like unit and acts with the same share of its resonance part as a donor beside the
+# basic N (AZOLE_ADJACENT_RESONANCE): 5-amino-1-alkylpyrazoles and 5-amino-1-methyl-1,2,4-triazole
+AZOLE_ACROSS_DONOR = 0.5
 # The share of the amine rho* (about 3.1 [PDS]) that reaches an amino N conjugated with a
 # protonated ring N, which carries about 0.4 of the charge (the amidinium-like cation of
 # 2- and 4-aminopyridines): our estimate

@@ -1081,6 +1081,8 @@ def azine(mol: Chem.Mol, n_idx: int) -> tuple[float, str]:
                     # against 2.5 for the 5-nitroimidazole metronidazole, from memory)
                     sp = spm
                 sigma += sm + K.AZOLE_ADJACENT_RESONANCE * (sp - sm)
+            elif key in _PI_DONORS and _across_pyrrole_n(mol, ring5, n_idx, idx):
+                sigma += sm + K.AZOLE_ACROSS_DONOR * (sp - sm)
             else:
                 sigma += sm
     # benzo (or other aromatic) fusion on the ring's carbons
@@ -1101,6 +1103,17 @@ def azine(mol: Chem.Mol, n_idx: int) -> tuple[float, str]:
             fused *= K.AZOLE_AMIDINE_DONOR_SHARE
         pka += fused
     return pka - K.AZOLE_RHO * sigma, f"ring class ({label}) with substituent terms"
+
+
+def _across_pyrrole_n(mol: Chem.Mol, ring5: list[int], n_idx: int, idx: int) -> bool:
+    """Ring atom ``idx`` sits next to a pyrrole-type ring N that is itself next to the basic N
+    (C5 of a 1-substituted pyrazole seen from N2)."""
+    for y in mol.GetAtomWithIdx(idx).GetNeighbors():
+        if y.GetIdx() not in ring5 or y.GetAtomicNum() != 7 or y.GetIdx() == n_idx:
+            continue
+        if (y.GetDegree() == 3 or y.GetTotalNumHs() > 0) and mol.GetBondBetweenAtoms(y.GetIdx(), n_idx):
+            return True
+    return False
 
 
 def _amidine_carbon_donor(mol: Chem.Mol, ring5: list[int], n_idx: int) -> bool:
