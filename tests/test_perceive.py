@@ -223,3 +223,19 @@ def test_a_reactant_that_loses_a_conflict_is_placed_again_on_free_atoms():
         and any(n.GetAtomicNum() == 8 for n in a.GetNeighbors())
     ]
     assert ketone_c and ketone_c[0] in anhydride_atoms
+
+
+@pytest.mark.parametrize(
+    "name",
+    ["HATU", "HBTU", "TBTU", "COMU", "PyBOP", "T3P", "CDI", "DMTMM", "DIC", "EDC·HCl", "DCC"],
+)
+def test_amide_coupling_agents_are_perceived_as_such(name):
+    # structures of the common coupling agents (Montalbetti & Falque, Tetrahedron 2005, 61,
+    # 10827): an agent of this kind, not a base, whatever nitrogens it carries
+    from chemcheck.reaction import parse_reaction
+
+    rxn = parse_reaction(f"OC(=O)c1ccccc1.NCc1ccccc1>{name}>O=C(NCc1ccccc1)c1ccccc1")
+    agent = rxn.agents[0]
+    p = perceive(agent.mol)
+    assert p.has("coupling_agent", "carbodiimide")
+    assert p.kind == "coupling_agent"

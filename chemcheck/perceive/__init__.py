@@ -345,7 +345,7 @@ _ELECTROPHILES = (
 
 
 def agent_kind(nitrogens, groups: list[GroupMatch], hint: str | None) -> str:
-    """base, acid, lewis_acid, solvent, reductant, catalyst, oxidant or other."""
+    """base, acid, lewis_acid, solvent, reductant, catalyst, oxidant, coupling_agent or other."""
     names = {g.name for g in groups}
     if "lewis_acid" in names:
         return "lewis_acid"
@@ -355,6 +355,8 @@ def agent_kind(nitrogens, groups: list[GroupMatch], hint: str | None) -> str:
         return "reductant"
     if names & {"peroxide", "metal_oxo_oxidant"}:
         return "oxidant"
+    if names & {"coupling_agent", "carbodiimide"}:
+        return "coupling_agent"  # its ring N or amino groups are not there to take a proton
     if "carbonate" in names:
         return "base"  # bicarbonate's O-H also matches the carboxylic acid pattern
     if names & set(_ACID_GROUPS) or "ammonium" in names:

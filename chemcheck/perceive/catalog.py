@@ -86,6 +86,19 @@ GROUPS: tuple[GroupDef, ...] = (
     GroupDef("isocyanate", "[CX2](=[NX2])=[OX1]", "isocyanate"),
     GroupDef("isothiocyanate", "[CX2](=[NX2])=[SX1]", "isothiocyanate"),
     GroupDef("carbodiimide", "[CX2](=[NX2])=[NX2]", "carbodiimide"),
+    # amide coupling agents that turn a carboxylic acid into an acylating agent (one name, several
+    # structural classes: Montalbetti & Falque, Tetrahedron 2005, 61, 10827; Valeur & Bradley,
+    # Chem. Soc. Rev. 2009, 38, 606)
+    GroupDef(
+        "coupling_agent",
+        "[$([CX3](=[NX3+])([NX3])[$([OX2]),$([#7][#7])]),"  # uronium or aminium salt (HATU, HBTU, COMU)
+        "$([PX4+][OX2][#7]),"  # phosphonium salt (BOP, PyBOP)
+        "$([PX4](=[OX1])[OX2][PX4]=[OX1]),"  # phosphonic or phosphoric anhydride (T3P)
+        "$([CX3](=[OX1])([nX3])[nX3]),"  # carbonyl diazole (CDI)
+        "$(c1(Cl)ncncn1),$(c1([NX4+])ncncn1),"  # chlorotriazine or triazinylammonium (CDMT, DMTMM)
+        "$(c([F,Cl,Br,I])[n+])]",  # 2-halopyridinium salt (Mukaiyama's reagent)
+        "amide coupling agent",
+    ),
     # alkylating agents
     GroupDef("alkyl_halide", "[CX4;!$(C([F,Cl,Br,I])[F,Cl,Br,I])][Cl,Br,I]", "alkyl halide"),
     GroupDef("alkyl_sulfonate", "[CX4][OX2][SX4](=[OX1])(=[OX1])[#6,OX2]", "alkyl sulfonate or sulfate"),

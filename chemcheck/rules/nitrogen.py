@@ -1021,16 +1021,10 @@ def _hazard_classes(ctx: Context, comp) -> set[str]:
 
 
 # --------------------------------------------------------------------------- amides from free acids
-# Reagents and catalysts that turn a carboxylic acid into an acylating agent (or catalyse the
-# direct amidation), by structure: the classes of the reviews cited in the rule's docstring.
+# Besides the coupling agents of the catalog: reagents that turn a carboxylic acid into an
+# acid halide or a mixed anhydride, and catalysts of the direct amidation, by structure (the
+# classes of the reviews cited in the rule's docstring).
 _ACTIVATORS: tuple[tuple[str, str], ...] = (
-    ("carbodiimide", "[NX2]=[CX2]=[NX2]"),  # DCC, DIC, EDC
-    ("uronium or aminium salt", "[CX3](=[NX3+])([NX3])[$([OX2]),$([#7][#7])]"),  # HATU, HBTU, TBTU, COMU
-    ("phosphonium salt", "[PX4+][OX2][#7]"),  # BOP, PyBOP, PyAOP
-    ("phosphonic or phosphoric anhydride", "[PX4](=[OX1])[OX2][PX4](=[OX1])"),  # T3P
-    ("acyl or carbonyl azole", "[CX3](=[OX1])[nX3]"),  # CDI
-    ("chlorotriazine or triazinylammonium", "[$(c1(Cl)ncncn1),$(c1([NX4+])ncncn1)]"),  # CDMT, DMTMM
-    ("2-halopyridinium salt", "[F,Cl,Br,I]c[n+]"),  # Mukaiyama's reagent
     ("inorganic acid halide", "[S,P;!$([S,P]-[#6])]([Cl,Br])"),  # SOCl2, POCl3, PCl5
     ("acid halide", "[CX3](=[OX1])[Cl,Br,F]"),  # oxalyl chloride, a chloroformate (mixed anhydride)
     ("sulfonyl halide", "[SX4](=[OX1])(=[OX1])[Cl,F]"),  # MsCl, TsCl (mixed anhydride)
@@ -1049,7 +1043,11 @@ def _activator_queries() -> tuple[tuple[str, Chem.Mol], ...]:
     return tuple((name, Chem.MolFromSmarts(sm)) for name, sm in _ACTIVATORS)
 
 
-def _activator(comp) -> str | None:
+def _activator(ctx: Context, comp) -> str | None:
+    """What activates a carboxylic acid here: a coupling agent (perceived), an acid-halide
+    former, a mixed-anhydride reagent or a direct-amidation catalyst."""
+    if ctx.perception(comp).has("coupling_agent", "carbodiimide"):
+        return "coupling agent"
     for name, q in _activator_queries():
         if comp.mol.HasSubstructMatch(q):
             return name
@@ -1104,7 +1102,7 @@ def amide_from_unactivated_acid(ctx: Context):
     ]
     if not acids:
         return
-    if any(_activator(c) for c in rxn.reactants + rxn.agents if c not in acids):
+    if any(_activator(ctx, c) for c in rxn.reactants + rxn.agents if c not in acids):
         return
     for nb in changed_nitrogens(ctx):
         if nb.kind_after != "amide" or nb.kind_before == "amide":
