@@ -120,17 +120,17 @@ def _accuracy(path, cls=None):
 
 # Regression guards just above the accuracy measured when the methods landed
 # (docs/basicity.md). Of the basicity issue's goals, overall (0.5) and anilines (0.3) are met;
-# pyridines (0.3) are not yet (0.37).
+# pyridines (0.3) are not yet (0.364).
 @pytest.mark.parametrize(
     "classes,limit",
     [
-        (None, 0.46),
+        (None, 0.455),
         (("aniline_primary",), 0.25),
         (("aniline_primary", "aniline_secondary", "aniline_tertiary"), 0.32),
-        (("azine_polyaza",), 0.63),
+        (("azine_polyaza",), 0.61),
         (("other_heteroaromatic",), 0.53),
         (("aliphatic_primary", "aliphatic_secondary", "aliphatic_tertiary"), 0.40),
-        (("pyridine",), 0.39),
+        (("pyridine",), 0.38),
         (("imidazole",), 0.47),
         (("amidine_guanidine",), 0.47),
     ],
@@ -851,3 +851,11 @@ def test_a_donor_across_the_ring_n_r_of_a_pyrazole_conjugates_with_the_cation():
     c4 = first_protonation("Cn1cc(N)cn1")[1]
     assert c5 - parent >= 2.0
     assert c5 > c4
+
+
+def test_a_peri_oxygen_takes_the_n_h_of_the_cation_instead_of_crowding_it():
+    # 8-hydroxyquinoline (oxine) 4.91 is as basic as quinoline 4.90, while 8-methylquinoline is
+    # weaker (4.6) (Albert; Perrin 1965, from memory)
+    quinoline = first_protonation("c1ccc2ncccc2c1")[1]
+    assert abs(first_protonation("Oc1cccc2cccnc12")[1] - 4.91) <= 0.5
+    assert first_protonation("Cc1cccc2cccnc12")[1] < quinoline

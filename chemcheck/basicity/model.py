@@ -724,6 +724,10 @@ def _peri(mol: Chem.Mol, ring: list[int], site: int) -> float:
     groups = _peri_groups(mol, ring, site)
     if not groups:
         return 0.0
+    if all(_peri_acceptor(mol, g) for g in groups):
+        # an oxygen in the peri position (a ring C=O, an ether or a hydroxy O) accepts a
+        # hydrogen bond from the N-H of the cation, which pays for the crowding (K.PERI_ACCEPTOR)
+        return K.PERI_ACCEPTOR
     n = mol.GetAtomWithIdx(site)
     ortho_sub = False
     for r in n.GetNeighbors():
@@ -739,6 +743,13 @@ def _peri(mol: Chem.Mol, ring: list[int], site: int) -> float:
     if len(sides) > 1:
         ortho_sub = True
     return K.PERI + (K.PERI_BUTTRESS if ortho_sub else 0.0)
+
+
+def _peri_acceptor(mol: Chem.Mol, g: Chem.Atom) -> bool:
+    """A peri oxygen (of a C=O, an ether or a hydroxy group) that accepts a hydrogen bond from
+    the N-H of the cation: 8-hydroxyquinoline 4.91 (Albert, from memory) is as basic as
+    quinoline 4.90, where a peri methyl group lowers it."""
+    return g.GetAtomicNum() == 8 and not g.GetIsAromatic()
 
 
 def _donor_cross(mol: Chem.Mol, ring: list[int], site: int, donors: list, rho: float) -> float:
