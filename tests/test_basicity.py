@@ -120,7 +120,7 @@ def _accuracy(path, cls=None):
 
 # Regression guards just above the accuracy measured when the methods landed
 # (docs/basicity.md). Of the basicity issue's goals, overall (0.5) and anilines (0.3) are met;
-# pyridines (0.3) are not yet (0.364).
+# pyridines (0.3) are not yet (0.359).
 @pytest.mark.parametrize(
     "classes,limit",
     [
@@ -859,3 +859,10 @@ def test_a_peri_oxygen_takes_the_n_h_of_the_cation_instead_of_crowding_it():
     quinoline = first_protonation("c1ccc2ncccc2c1")[1]
     assert abs(first_protonation("Oc1cccc2cccnc12")[1] - 4.91) <= 0.5
     assert first_protonation("Cc1cccc2cccnc12")[1] < quinoline
+
+
+def test_a_peri_amino_group_holds_the_ring_n_in_a_hydrogen_bond():
+    # 8-aminoquinoline 3.99 lies about 0.9 below quinoline 4.90 (Albert, from memory): more than
+    # the crowding of a peri methyl group, as its N-H binds the ring N's lone pair in the base
+    assert abs(first_protonation("Nc1cccc2cccnc12")[1] - 3.99) <= 0.3
+    assert first_protonation("Nc1cccc2cccnc12")[1] < first_protonation("Cc1cccc2cccnc12")[1]

@@ -227,6 +227,9 @@ PERI_BUTTRESS = -0.6
 # a peri O (C=O, OR, OH) takes the N-H of the cation in a hydrogen bond that pays for the
 # crowding: no peri term (8-hydroxyquinoline 4.91 against quinoline 4.90, Albert, from memory)
 PERI_ACCEPTOR = 0.0
+# a peri N-H (an amino group) holds the ring N's lone pair in a hydrogen bond in the neutral
+# base: 8-aminoquinoline 3.99 (Albert, from memory) against 4.6 from the peri term alone
+PERI_NH_DONOR = -0.6
 # Amidines: rho* of an alkyl group on either amidine N (the charge is shared by two N, so about
 # 0.6 of the amine rho*), and a five-membered ring amidine (2-imidazoline, lysidine ~11.0 and
 # 2-phenylimidazoline ~9.9, from memory, against acetamidine 12.4 and benzamidine 11.6).

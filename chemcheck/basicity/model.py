@@ -742,7 +742,13 @@ def _peri(mol: Chem.Mol, ring: list[int], site: int) -> float:
     }
     if len(sides) > 1:
         ortho_sub = True
-    return K.PERI + (K.PERI_BUTTRESS if ortho_sub else 0.0)
+    # an N-H donor in the peri position (an amino group) holds the ring N's lone pair in a
+    # hydrogen bond in the neutral base, which the cation loses (8-aminoquinoline)
+    donor = any(
+        g.GetAtomicNum() == 7 and not g.GetIsAromatic() and g.GetTotalNumHs() > 0 and g.GetFormalCharge() == 0
+        for g in groups
+    )
+    return K.PERI + (K.PERI_BUTTRESS if ortho_sub else 0.0) + (K.PERI_NH_DONOR if donor else 0.0)
 
 
 def _peri_acceptor(mol: Chem.Mol, g: Chem.Atom) -> bool:
