@@ -740,7 +740,10 @@ def uphill_proton_transfer(ctx: Context):
     What it flags
         A drawn reaction whose only change is a proton moving from an acid HA to a base B,
         with K = 10^(pKa(BH+) − pKa(HA)) below 0.1 (water-scale pKa values). Favourable
-        transfers pass silently.
+        transfers pass silently. A free-basing drawn with only the free amine as product (an
+        amine salt, or an amine with a strong acid, and a base among the reagents) is judged
+        the same way, with the base's aqueous pKa (a bicarbonate takes its proton at 6.35, a
+        carbonate at 10.33).
 
     Why it matters
         A proton goes to the stronger base. Drawing it the other way (freeing an alkylamine
@@ -762,6 +765,10 @@ def uphill_proton_transfer(ctx: Context):
     r = uphill_proton_transfer.rule
     rxn = ctx.reaction
     if not rxn.products:
+        return
+    freed = _free_basing(ctx)
+    if freed is not None:
+        yield freed
         return
     spectators = {"[Na+]", "[K+]", "[Li+]", "[Cs+]", "[Cl-]", "[Br-]", "[I-]"}
     from collections import Counter
@@ -825,6 +832,98 @@ def uphill_proton_transfer(ctx: Context):
         fix=f"Use a base whose conjugate acid has a pKa above {pka_ha + 1:.0f} (for example NaOH, pKa 14, or "
         f"K2CO3, pKa 10.3), or a stronger acid.",
     )
+
+
+# Conjugate-acid pKa of the inorganic bases used to free an amine in water (CRC, from memory):
+# the aqueous equilibrium of a wash, not the CO2-driven scavenging of an acylation
+_WASH_BASE_PKA = {"hydroxide": 14.0, "carbonate": 10.33, "bicarbonate": 6.35, "carboxylate": 4.76, "phosphate_base": 12.35}
+
+
+def _wash_bases(ctx: Context, exclude: set[int]) -> list[tuple[object, float]]:
+    """(component, conjugate-acid pKa) of each base among the reactants and agents."""
+    out = []
+    for comp in ctx.reaction.reactants + ctx.reaction.agents:
+        if comp.index in exclude or salt_info(ctx, comp)[0]:
+            continue
+        p = ctx.perception(comp)
+        for g in p.groups:
+            name = g.name
+            if name == "carbonate" and any(
+                n.GetTotalNumHs() for n in comp.mol.GetAtomWithIdx(g.centre).GetNeighbors()
+            ):
+                name = "bicarbonate"
+            if name == "carboxylate" and p.has("carboxylic_acid"):
+                continue
+            if name in _WASH_BASE_PKA:
+                out.append((comp, _WASH_BASE_PKA[name]))
+        for s_ in ctx.sites(comp):
+            if s_.pka is not None and s_.kind not in ("ammonium", "amide_anion"):
+                out.append((comp, s_.pka))
+    return out
+
+
+def _freed_pct(log_k: float) -> str:
+    """Share of the amine freed when its salt and one equivalent of base reach equilibrium:
+    x^2 / (1 - x)^2 = K."""
+    root = 10 ** (log_k / 2)
+    x = 100 * root / (1 + root)
+    return f"{x:.0f} %" if x >= 1 else "1 % or less"
+
+
+def _free_basing(ctx: Context):
+    """A free-basing drawn as salt (or amine and strong acid) + base >> free amine, with a base
+    too weak to take the proton: the finding, or None."""
+    from ..perceive import canonical_key
+
+    rxn = ctx.reaction
+    r = uphill_proton_transfer.rule
+    products = [c for c in rxn.products if Chem.GetFormalCharge(c.mol) == 0 and "." not in c.smiles]
+    if not products:
+        return None
+    keys = {canonical_key(c.mol)[0] for c in products if canonical_key(c.mol)}
+    strong_acid = [c for c in rxn.reactants + rxn.agents if ctx.perception(c).has("hydrogen_halide", "sulfonic_acid", "perfluoro_acid")]
+    for comp in rxn.reactants:
+        is_salt, sites = salt_info(ctx, comp)
+        if is_salt:
+            frags = [f for f in _fragments(comp) if any(a.GetAtomicNum() == 7 for a in f.GetAtoms())]
+            free = []
+            for f in frags:
+                from rdkit.Chem.MolStandardize import rdMolStandardize
+
+                from .. import _rdlog
+
+                with _rdlog.captured():
+                    free.append(Chem.MolToSmiles(rdMolStandardize.Uncharger().uncharge(Chem.Mol(f))))
+            if not any(Chem.CanonSmiles(x) in keys for x in free):
+                continue
+            exclude = {comp.index}
+        elif strong_acid and comp.smiles in keys and comp not in strong_acid:
+            sites = [s_ for s_ in ctx.sites(comp) if s_.pka is not None and s_.kind != "ammonium"]
+            exclude = {comp.index} | {c.index for c in strong_acid}
+        else:
+            continue
+        if not sites:
+            continue
+        pka_bh = max(s_.pka for s_ in sites)
+        bases = _wash_bases(ctx, exclude)
+        if not bases:
+            return None  # amine-salt-not-freed and the balance speak for a missing base
+        base, pka_b = max(bases, key=lambda b: b[1])
+        k = pka_b - pka_bh
+        if k >= -1.0:
+            return None
+        return r.finding(
+            f"The free amine is drawn from {comp.label}, but the strongest base present, {base.label} (conjugate "
+            f"acid pKa {pka_b:.1f}), is weaker than the amine (pKa {pka_bh:.1f}): K = 10^({pka_b:.1f} − "
+            f"{pka_bh:.1f}) ≈ 10^{k:.1f}, so the amine stays protonated: with one equivalent in water only about "
+            f"{_freed_pct(k)} of it is freed at equilibrium, and a wash at the pH that base gives leaves most of it "
+            "in the water.",
+            atoms=[(comp.index, sites[0].atom_index)] if sites[0].atom_index is not None else [],
+            fix=f"Free the amine with a base whose conjugate acid has a pKa above {pka_bh + 1:.0f} (aqueous NaOH, "
+            "pKa 14, or K2CO3, 10.3), then extract it into an organic solvent at a pH of at least "
+            f"{pka_bh + 2:.0f}.",
+        )
+    return None
 
 
 # --------------------------------------------------------------------------- solvolysis
