@@ -306,9 +306,9 @@ def _balance(reaction: Reaction) -> tuple:
                 found = lookup(pos, q, "product")
             elif neg and not pos:
                 found = lookup(neg, -q, "reactant")
-            if found is None and extra == 0:
-                # a reagent left out on the left and a by-product on the right: a hydrolysis
-                # (water in, HCl out), a reduction (H2 or a hydride in, water out)
+            elif extra == 0:
+                # a reagent left out on the left and a by-product on the right (a hydrolysis:
+                # water in, HCl out)
                 found = _reagent_and_by_product(diff, q, bps, sources, lookup)
             cand = None
             if found:
@@ -316,6 +316,12 @@ def _balance(reaction: Reaction) -> tuple:
                 cand = (extra + len(found) + 0.5 * needed, len(found), coeffs, found)
         if cand and (best is None or cand[:2] < best[:2]):
             best = cand
+    if best is None and _key(drawn):
+        # nothing closes it with coefficients: a reagent in and a by-product out even where the
+        # difference is all on one side (a reduction drawn without its H2: water out, H2 in)
+        found = _reagent_and_by_product(drawn, drawn_q, bps, sources, lookup)
+        if found:
+            best = (0, len(found), ones, found)
     if best is not None:
         return (drawn_ok, True, tuple(best[2]), tuple(best[3]), {}, 0)
     salt = _spectator_salt(reactants, vectors, charges, drawn, drawn_q, lookup)

@@ -136,3 +136,11 @@ def test_a_reduction_needs_hydrogen_and_releases_water():
     report = chemcheck.check("Nc1ccccc1.O=C1CCCCC1>[Na+].[BH3-]C#N>C1CCC(Nc2ccccc2)CC1")
     [f] = report.by_rule("unbalanced-equation")
     assert "H2 (or its equivalent from a reductant) is needed on the reactant side" in f.message
+
+
+def test_an_exhaustive_methylation_to_the_quaternary_salt_takes_three_methyl_iodide():
+    # RNH2 + 3 MeI -> RNMe3+ I- + 2 HI (the first step of a Hofmann elimination, textbook
+    # equation): coefficients, not an invented reagent on the left
+    b, got = missing("CC(CCC)N.CI>>C[N+](C)(C)C(C)CCC.[I-]")
+    assert b.coefficients[1] == 3
+    assert got == [("HI", 2, "product")]
