@@ -33,7 +33,9 @@ def _weighed_as_salt(text: str, rxn: Reaction, keys: list[str]) -> tuple[str, li
     for key in keys:
         if rxn.find(key) is not None:
             continue
-        parts = [p.strip() for p in key.split(".")]
+        parts = key.split(".")
+        if any(p != p.strip() or not p for p in parts):
+            continue  # written with spaces: left to the amounts' own error
         for comp in rxn.reactants + rxn.agents:
             if comp.text not in parts or "." in comp.text:
                 continue
@@ -95,6 +97,8 @@ def check(reaction: str | Reaction, amounts: dict[str, str] | None = None) -> Re
             )
     for base, salt in salts:
         comp = rxn.find(salt)
+        if comp is None:
+            continue
         findings.append(
             Finding(
                 rule="weighed-as-salt",
