@@ -873,6 +873,9 @@ def _freed_pct(log_k: float) -> str:
 def _free_basing(ctx: Context):
     """A free-basing drawn as salt (or amine and strong acid) + base >> free amine, with a base
     too weak to take the proton: the finding, or None."""
+    from rdkit.Chem.MolStandardize import rdMolStandardize
+
+    from .. import _rdlog
     from ..perceive import canonical_key
 
     rxn = ctx.reaction
@@ -886,14 +889,8 @@ def _free_basing(ctx: Context):
         is_salt, sites = salt_info(ctx, comp)
         if is_salt:
             frags = [f for f in _fragments(comp) if any(a.GetAtomicNum() == 7 for a in f.GetAtoms())]
-            free = []
-            for f in frags:
-                from rdkit.Chem.MolStandardize import rdMolStandardize
-
-                from .. import _rdlog
-
-                with _rdlog.captured():
-                    free.append(Chem.MolToSmiles(rdMolStandardize.Uncharger().uncharge(Chem.Mol(f))))
+            with _rdlog.captured():
+                free = [Chem.MolToSmiles(rdMolStandardize.Uncharger().uncharge(Chem.Mol(f))) for f in frags]
             if not any(Chem.CanonSmiles(x) in keys for x in free):
                 continue
             exclude = {comp.index}
