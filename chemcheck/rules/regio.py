@@ -477,6 +477,7 @@ _FC_ACIDS = tuple(
 )
 # pi-excessive heteroarenes that are acylated without a catalyst (pyrroles, indoles: an
 # NH or N-alkyl five-membered ring N with its lone pair in the ring)
+_ARYL_KETONE = Chem.MolFromSmarts("[a][CX3](=[OX1])")
 _PI_EXCESSIVE = Chem.MolFromSmarts("[nX3;r5;!$(n-[CX3]=O);!$(n-S(=O)=O)]")
 
 
@@ -522,6 +523,12 @@ def ring_acylation_without_lewis_acid(ctx: Context):
         return
     acyl = [(c, g) for c in rxn.reactants for g in ctx.perception(c).groups_named("acid_halide", "anhydride")]
     if not acyl:
+        return
+    # only where the products hold more aryl ketones than the reactants (a cheap test first)
+    def aryl_ketones(comps):
+        return sum(len(c.mol.GetSubstructMatches(_ARYL_KETONE)) for c in comps)
+
+    if aryl_ketones(rxn.products) <= aryl_ketones(rxn.reactants):
         return
     from ..changes import atom_correspondence, new_bonds_at
 
