@@ -478,6 +478,7 @@ _FC_ACIDS = tuple(
 # pi-excessive heteroarenes that are acylated without a catalyst (pyrroles, indoles: an
 # NH or N-alkyl five-membered ring N with its lone pair in the ring)
 _ARYL_KETONE = Chem.MolFromSmarts("[a][CX3](=[OX1])")
+_IMINE_OR_ENAMINE = Chem.MolFromSmarts("[$([CX3]=[NX2]),$([CX3]([NX3])=[CX3])]")
 _PI_EXCESSIVE = Chem.MolFromSmarts("[nX3;r5;!$(n-[CX3]=O);!$(n-S(=O)=O)]")
 
 
@@ -623,8 +624,9 @@ def condensation_product_mismatch(ctx: Context):
     What it flags
         An imine drawn from a secondary amine or any condensation product drawn from a tertiary
         amine (errors: they cannot form); an enamine drawn from a primary amine where the imine is
-        the expected product, or an enamine drawn on the more substituted side of a ketone
-        (warnings).
+        the expected product, an enamine drawn on the more substituted side of a ketone, or an
+        imine or enamine whose atoms the two reactants cannot supply (a carbon lost, another
+        amine's N-substituent) (warnings).
 
     Why it matters
         Condensation needs two N–H bonds for a neutral imine. A secondary amine stops at the
@@ -686,6 +688,21 @@ def condensation_product_mismatch(ctx: Context):
             )
         return
     if not changed:
+        if cands and site.kind in ("primary_amine", "ammonia", "aryl_amine", "secondary_amine") and not ctx.balance.balanced:
+            # a condensation product drawn whose atoms the reactants cannot supply (a CH2 lost,
+            # the wrong amine's N-substituent): name the product these reactants give
+            drawn_cn = [
+                c for c in rxn.products
+                if c.mol.HasSubstructMatch(_IMINE_OR_ENAMINE) and c.index not in {x.index for x in rxn.reactants}
+            ]
+            if drawn_cn:
+                yield r.finding(
+                    f"The product drawn, {drawn_cn[0].label}, is not what {carbonyl.label} and {amine_comp.label} give: "
+                    f"its atoms do not add up to theirs less water. Expected {cands[0].smiles} ({cands[0].reason}).",
+                    atoms=atoms,
+                    fix=f"Draw {cands[0].smiles}, or add the reagent that the drawn product needs.",
+                    severity="warning",
+                )
         return
     prod = ctx.reaction.components[changed[0].product]
     pn = prod.mol.GetAtomWithIdx(changed[0].product_atom)
