@@ -173,6 +173,12 @@ REAGENTS: tuple[tuple[tuple[str, ...], str, str], ...] = (
     (("propylphosphonic anhydride", "T3P"), "CCCP1(=O)OP(=O)(CCC)OP(=O)(CCC)O1", "reagent"),
     (("DMTMM",), "COc1nc(OC)nc([N+]2(C)CCOCC2)n1.[Cl-]", "reagent"),
     (("HOAt", "1-hydroxy-7-azabenzotriazole"), "On1nnc2cccnc21", "reagent"),
+    (("HCTU",), "CN(C)C(=[N+](C)C)On1nnc2cc(Cl)ccc21.F[P-](F)(F)(F)(F)F", "reagent"),
+    (("PyAOP",), "C1CCN(C1)[P+](On1nnc2cccnc21)(N1CCCC1)N1CCCC1.F[P-](F)(F)(F)(F)F", "reagent"),
+    (("CDMT", "2-chloro-4,6-dimethoxy-1,3,5-triazine"), "COc1nc(Cl)nc(OC)n1", "reagent"),
+    (("isobutyl chloroformate",), "CC(C)COC(Cl)=O", "reagent"),
+    (("pivaloyl chloride", "PivCl"), "CC(C)(C)C(Cl)=O", "reagent"),
+    (("boric acid",), "OB(O)O", "reagent"),
     # alkylating agents
     (("iodomethane", "methyl iodide", "MeI", "CH3I"), "CI", "reagent"),
     (("iodoethane", "ethyl iodide", "EtI"), "CCI", "reagent"),
