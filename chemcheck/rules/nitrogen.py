@@ -280,7 +280,7 @@ def acid_scavenger_short(ctx: Context):
         n_nuc, a1 = amount_mmol(ctx, nuc)
         n_e, a2 = amount_mmol(ctx, elec)
         bases = bases_present(ctx, {nuc.index, elec.index})
-        brought = acids_brought_in(ctx, {nuc.index, elec.index})
+        brought = acids_brought_in(ctx, {nuc.index, elec.index} | _acyl_sources(ctx, nuc))
         protons = sum(m for _, _, m in brought)
         # an amino acid brings its own proton: its acid group has protonated its amine
         # (a zwitterion), and a base must take that proton before the amine can react
@@ -1229,6 +1229,24 @@ def amide_from_unactivated_acid(ctx: Context):
             "agents, or make the acid chloride first (SOCl2, or oxalyl chloride with a drop of DMF).",
         )
         return
+
+
+def _acyl_sources(ctx: Context, nuc) -> set[int]:
+    """Carboxylic acids whose acyl group the nucleophile's new amide carries (an acid activated
+    in situ by a chloroformate, SOCl2 or a sulfonyl chloride): their proton is the one the
+    activator releases as HX, not a second one brought in."""
+    rxn = ctx.reaction
+    acids = [c for c in rxn.reactants if ctx.perception(c).has("carboxylic_acid")]
+    if not acids or not rxn.products:
+        return set()
+    out = set()
+    for nb in changed_nitrogens(ctx):
+        if nb.reactant != nuc.index or nb.kind_after != "amide":
+            continue
+        found = _acyl_source(ctx, rxn.components[nb.product], nb, acids)
+        if found is not None:
+            out.add(found[0].index)
+    return out
 
 
 def _acyl_source(ctx: Context, product, nb, acids):
