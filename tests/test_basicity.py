@@ -143,7 +143,7 @@ def test_accuracy_on_the_iupac_dataset(pka_dataset_dir, classes, limit):
 
 def test_multisite_accuracy(pka_dataset_dir):
     mae, n = _accuracy(pka_dataset_dir / "amine_pka_multisite_dev.csv")
-    assert n > 200 and mae <= 0.55
+    assert n > 200 and mae <= 0.52
 
 
 @pytest.mark.parametrize(
@@ -866,3 +866,16 @@ def test_a_peri_amino_group_holds_the_ring_n_in_a_hydrogen_bond():
     # the crowding of a peri methyl group, as its N-H binds the ring N's lone pair in the base
     assert abs(first_protonation("Nc1cccc2cccnc12")[1] - 3.99) <= 0.3
     assert first_protonation("Nc1cccc2cccnc12")[1] < first_protonation("Cc1cccc2cccnc12")[1]
+
+
+def test_a_donor_para_to_the_ring_n_r_of_a_cyclic_amidine_conjugates_with_the_cation():
+    # 1-methyl-2-iminopyrimidine protonates to a 2-amino-1-methylpyrimidinium ion whose ring
+    # N1 carries part of the charge; a dimethylamino group para to N1 conjugates with it (a
+    # vinylogous guanidinium) and raises the pKa by well over a unit, far more than a methyl
+    # group in the same place (J. A. Joule, K. Mills, Heterocyclic Chemistry, 5th ed., Wiley
+    # 2010, ch. 11: amino- and iminopyrimidines)
+    parent = first_protonation("Cn1cccnc1=N")[1]
+    amino = first_protonation("CN(C)c1ccn(C)c(=N)n1")[1]
+    methyl = first_protonation("Cc1ccn(C)c(=N)n1")[1]
+    assert amino - parent >= 1.5
+    assert amino - parent > 3 * (methyl - parent)

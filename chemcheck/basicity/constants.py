@@ -238,6 +238,7 @@ AMIDINE_RING5 = -1.0
 # A ring aza atom in a cyclic amidine held as an imine (1-alkyl-2-iminopyrimidine, ~11.7 from
 # memory, against 1-methyl-2-iminopyridine 13.0): sigma of the aza atom, times rho 4.5.
 IMINE_AZA = 0.4
+IMINE_RING_N_DONOR = 0.5
 # rho of the N-alkyl and N,N-dialkyl anilines: 3.46 for N,N-dimethylanilines against pKa 5.07
 # [PDS, from memory], used for N-monoalkyl anilines too.
 ANILINE_N_ALKYL_RHO = 3.46

@@ -1298,9 +1298,23 @@ def imine(mol: Chem.Mol, n_idx: int) -> tuple[float, str]:
         sigma = 0.0
         pka = 13.0
         if ring:
-            for d, key in _ring_substituents(mol, ring, c.GetIdx()):
+            # the ring N-R of the amidine (next to the =N carbon, or para to it in a
+            # 4-iminopyrimidine) carries part of the cation's charge (the aminopyridinium
+            # form): a pi-donor ortho or para to it conjugates with that charge and acts with
+            # a share of its resonance part (constants.IMINE_RING_N_DONOR)
+            ring_n = [
+                i for i in ring
+                if mol.GetAtomWithIdx(i).GetAtomicNum() == 7
+                and (mol.GetAtomWithIdx(i).GetDegree() == 3 or mol.GetAtomWithIdx(i).GetTotalNumHs() > 0)
+            ]
+            from_n = _ordered_positions(ring, ring_n[0]) if ring_n else {}
+            for d, key, idx in _ring_substituents_at(mol, ring, c.GetIdx()):
                 if key in ("aza", "ring_nR", "oxo") or key.startswith("ring_"):
                     sigma += K.IMINE_AZA if key == "aza" else 0.0
+                    continue
+                if key in _PI_DONORS and from_n.get(idx) in (1, 3) and idx not in {x.GetIdx() for x in c.GetNeighbors()}:
+                    sm, sp, _ = K.HAMMETT.get(key, (0.0, 0.0, 0.0))
+                    sigma += sm + K.IMINE_RING_N_DONOR * (sp - sm)
                     continue
                 sigma += _sigma_for(key, 2 if d == 1 else d, False)
             # the group on the ring N of the amidine (benzyl, propargyl) against the N-methyl of
