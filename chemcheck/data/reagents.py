@@ -95,6 +95,15 @@ REAGENTS: tuple[tuple[tuple[str, ...], str, str], ...] = (
     (("scandium triflate", "Sc(OTf)3"), "FC(F)(F)S(=O)(=O)O[Sc](OS(=O)(=O)C(F)(F)F)OS(=O)(=O)C(F)(F)F", "lewis_acid"),
     (("trimethylsilyl triflate", "TMSOTf"), "C[Si](C)(C)OS(=O)(=O)C(F)(F)F", "lewis_acid"),
     (("magnesium bromide", "MgBr2"), "Br[Mg]Br", "lewis_acid"),
+    (("bismuth(III) triflate", "Bi(OTf)3"), "FC(F)(F)S(=O)(=O)O[Bi](OS(=O)(=O)C(F)(F)F)OS(=O)(=O)C(F)(F)F", "lewis_acid"),
+    (("indium(III) triflate", "In(OTf)3"), "FC(F)(F)S(=O)(=O)O[In](OS(=O)(=O)C(F)(F)F)OS(=O)(=O)C(F)(F)F", "lewis_acid"),
+    (("ytterbium(III) triflate", "Yb(OTf)3"), "FC(F)(F)S(=O)(=O)O[Yb](OS(=O)(=O)C(F)(F)F)OS(=O)(=O)C(F)(F)F", "lewis_acid"),
+    (("copper(II) triflate", "Cu(OTf)2"), "FC(F)(F)S(=O)(=O)O[Cu]OS(=O)(=O)C(F)(F)F", "lewis_acid"),
+    (("indium(III) chloride", "InCl3"), "Cl[In](Cl)Cl", "lewis_acid"),
+    (("gallium(III) chloride", "GaCl3"), "Cl[Ga](Cl)Cl", "lewis_acid"),
+    # strong protic media for Friedel-Crafts acylation (PPA drawn as its diphosphoric acid unit)
+    (("polyphosphoric acid", "PPA"), "O=P(O)(O)OP(=O)(O)O", "acid"),
+    (("Eaton's reagent",), "CS(=O)(=O)O.O=P12OP3(=O)OP(=O)(O1)OP(=O)(O2)O3", "acid"),
     # solvents
     (("dichloromethane", "DCM", "CH2Cl2", "methylene chloride"), "ClCCl", "solvent"),
     (("chloroform", "CHCl3"), "ClC(Cl)Cl", "solvent"),

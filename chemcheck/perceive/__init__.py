@@ -355,7 +355,7 @@ def agent_kind(nitrogens, groups: list[GroupMatch], hint: str | None) -> str:
         return "reductant"
     if names & {"peroxide", "metal_oxo_oxidant"}:
         return "oxidant"
-    if names & {"coupling_agent", "carbodiimide"}:
+    if names & {"coupling_agent", "carbodiimide"} and hint not in ("acid", "lewis_acid"):
         return "coupling_agent"  # its ring N or amino groups are not there to take a proton
     if "carbonate" in names:
         return "base"  # bicarbonate's O-H also matches the carboxylic acid pattern

@@ -933,6 +933,23 @@ _SOLVOLYSIS_GROUPS = {
 _WATER_REACTIVE_LA = {"Al", "Ti", "Sn", "B", "Si", "Fe", "Zr", "Hf", "Sc", "Bi", "Ga", "In"}
 
 
+def _water_reactive(comp, g) -> bool:
+    """A Lewis acid that water destroys: halides and alkoxides of the metals above, and any
+    silyl reagent; not the metal triflates (Sc, Bi, In), which are used in water (common
+    practice: S. Kobayashi's water-compatible Lewis acids)."""
+    if g.detail not in _WATER_REACTIVE_LA:
+        return False
+    if g.detail == "Si":
+        return True
+    metal = comp.mol.GetAtomWithIdx(g.centre)
+    ligands = [x for x in metal.GetNeighbors()]
+    triflate = [
+        x for x in ligands
+        if x.GetAtomicNum() == 8 and any(y.GetAtomicNum() == 16 for y in x.GetNeighbors() if y.GetIdx() != metal.GetIdx())
+    ]
+    return not ligands or len(triflate) < len(ligands)
+
+
 @rule(id="reagent-solvolysis", title="A protic solvent or reagent destroys the electrophile", severity="warning")
 def reagent_solvolysis(ctx: Context):
     """Acylating agents and water-reactive Lewis acids together with water or an alcohol.
@@ -971,7 +988,7 @@ def reagent_solvolysis(ctx: Context):
             if g.name in _SOLVOLYSIS_GROUPS:
                 reactive.append((comp, g, _SOLVOLYSIS_GROUPS[g.name]))
                 break
-            if g.name == "lewis_acid" and g.detail in _WATER_REACTIVE_LA:
+            if g.name == "lewis_acid" and _water_reactive(comp, g):
                 reactive.append((comp, g, "water-reactive Lewis acid"))
                 break
     if not reactive:
@@ -1086,6 +1103,9 @@ _HAZARDS = (
 )
 
 
+_ACIDIC_P_ANHYDRIDE = Chem.MolFromSmarts("[OX2H1][PX4](=O)[OX2][PX4]=O")
+
+
 def _hazard_classes(ctx: Context, comp) -> set[str]:
     p = ctx.perception(comp)
     out = set()
@@ -1097,7 +1117,7 @@ def _hazard_classes(ctx: Context, comp) -> set[str]:
                 out.add("alkylating")
         elif g.name in ("acid_halide", "sulfonyl_halide", "chloroformate", "carbamoyl_chloride", "carbonyl_dihalide", "inorganic_acid_chloride", "sulfonic_anhydride"):
             out.add("acid_chloride")
-        elif g.name == "lewis_acid" and g.detail in _WATER_REACTIVE_LA:
+        elif g.name == "lewis_acid" and _water_reactive(comp, g):
             out.add("lewis_acid")
         elif g.name in ("sulfur_trioxide", "chlorosulfonic_acid"):
             out.add("sulfonating")
@@ -1111,6 +1131,8 @@ def _hazard_classes(ctx: Context, comp) -> set[str]:
             out.add("oxidiser")
         elif g.name in ("boron_hydride", "aluminium_hydride", "hydride_ion"):
             out.add("hydride")
+    if not in_salt and comp.mol.HasSubstructMatch(_ACIDIC_P_ANHYDRIDE):
+        out.add("strong_acid")  # polyphosphoric acid, Eaton's reagent: corrosive, hot and viscous
     if "sulfonating" in out:
         out -= {"acid_chloride", "strong_acid"}  # the sulfonating-agent caution covers both
     return out
