@@ -49,6 +49,15 @@ INORGANIC_BASE_SITES = {
 }
 
 
+# The same bases as they stand in an aqueous wash, where CO2 does not escape: a carbonate takes
+# its first proton at 10.33 and a bicarbonate its only one at 6.35 (CRC, from memory)
+AQUEOUS_BASE_SITES = {
+    **INORGANIC_BASE_SITES,
+    "carbonate": (10.33, 6.35),
+    "hydroxide": (14.0,),
+}
+
+
 @dataclass
 class Base:
     component: Component
@@ -144,8 +153,10 @@ def _free_kind(ctx: Context, comp: Component, idx: int) -> str:
     return {x.atom_index: x.kind for x in nitrogen_sites(free)}.get(idx, "")
 
 
-def bases_present(ctx: Context, exclude: set[int]) -> list[Base]:
-    """Every proton acceptor among the reactants and agents outside ``exclude``."""
+def bases_present(ctx: Context, exclude: set[int], *, aqueous: bool = False) -> list[Base]:
+    """Every proton acceptor among the reactants and agents outside ``exclude``; with
+    ``aqueous``, the inorganic bases at their aqueous pKa (AQUEOUS_BASE_SITES)."""
+    table = AQUEOUS_BASE_SITES if aqueous else INORGANIC_BASE_SITES
     out: list[Base] = []
     for comp in ctx.reaction.components:
         if comp.role == "product" or comp.index in exclude:
@@ -162,7 +173,7 @@ def bases_present(ctx: Context, exclude: set[int]) -> list[Base]:
                 continue
             out.append(Base(comp, comp.label, s.pka, mmol, s.atom_index, assumed))
         for g in p.groups:
-            sites = INORGANIC_BASE_SITES.get(g.name)
+            sites = table.get(g.name)
             if not sites:
                 continue
             if g.name == "carboxylate" and p.has("carboxylic_acid"):
@@ -170,7 +181,7 @@ def bases_present(ctx: Context, exclude: set[int]) -> list[Base]:
             if g.name == "carbonate" and comp.mol.GetAtomWithIdx(g.centre).GetTotalNumHs() == 0 and any(
                 n.GetTotalNumHs() for n in comp.mol.GetAtomWithIdx(g.centre).GetNeighbors()
             ):
-                sites = sites[:1]  # bicarbonate: one proton
+                sites = sites[-1:]  # bicarbonate: one proton, the carbonate's second
             for pka in sites:
                 out.append(Base(comp, comp.label, pka, mmol, g.centre, assumed))
     return out

@@ -834,34 +834,6 @@ def uphill_proton_transfer(ctx: Context):
     )
 
 
-# Conjugate-acid pKa of the inorganic bases used to free an amine in water (CRC, from memory):
-# the aqueous equilibrium of a wash, not the CO2-driven scavenging of an acylation
-_WASH_BASE_PKA = {"hydroxide": 14.0, "carbonate": 10.33, "bicarbonate": 6.35, "carboxylate": 4.76, "phosphate_base": 12.35}
-
-
-def _wash_bases(ctx: Context, exclude: set[int]) -> list[tuple[object, float]]:
-    """(component, conjugate-acid pKa) of each base among the reactants and agents."""
-    out = []
-    for comp in ctx.reaction.reactants + ctx.reaction.agents:
-        if comp.index in exclude or salt_info(ctx, comp)[0]:
-            continue
-        p = ctx.perception(comp)
-        for g in p.groups:
-            name = g.name
-            if name == "carbonate" and any(
-                n.GetTotalNumHs() for n in comp.mol.GetAtomWithIdx(g.centre).GetNeighbors()
-            ):
-                name = "bicarbonate"
-            if name == "carboxylate" and p.has("carboxylic_acid"):
-                continue
-            if name in _WASH_BASE_PKA:
-                out.append((comp, _WASH_BASE_PKA[name]))
-        for s_ in ctx.sites(comp):
-            if s_.pka is not None and s_.kind not in ("ammonium", "amide_anion"):
-                out.append((comp, s_.pka))
-    return out
-
-
 def _freed_pct(log_k: float) -> str:
     """Share of the amine freed when its salt and one equivalent of base reach equilibrium:
     x^2 / (1 - x)^2 = K."""
@@ -902,10 +874,11 @@ def _free_basing(ctx: Context):
         if not sites:
             continue
         pka_bh = max(s_.pka for s_ in sites)
-        bases = _wash_bases(ctx, exclude)
+        bases = bases_present(ctx, exclude, aqueous=True)
         if not bases:
             return None  # amine-salt-not-freed and the balance speak for a missing base
-        base, pka_b = max(bases, key=lambda b: b[1])
+        strongest = max(bases, key=lambda b: b.pka)
+        base, pka_b = strongest.component, strongest.pka
         k = pka_b - pka_bh
         if k >= -1.0:
             return None
