@@ -582,10 +582,10 @@ def _hammett_sum(
             continue
         if key in ("NHR", "NR2") and d in (1, 3) and donors is not None:
             ortho += _amino_n_withdrawal(mol, ring, idx)
+        if key in ("alkyl", "tBu"):
+            sigma += _remote_inductive(mol, ring, idx)  # inductive: the same at every position
         if d == 1:
             term = ortho_table.get(key, default_ortho if key != "H" else 0.0)
-            if key in ("alkyl", "tBu"):
-                sigma += _remote_inductive(mol, ring, idx)  # acts through sigma, as from meta
             if key in K.BETWEEN_AZA and _aza_beside(mol, ring, idx, centre):
                 term += K.BETWEEN_AZA[key]
             ortho += term
@@ -601,8 +601,6 @@ def _hammett_sum(
                 term = sg  # already its field effect alone: a twist takes no resonance away
             else:
                 term = _twisted_sigma(mol, ring, centre, key, d, sg)
-            if key in ("alkyl", "tBu"):
-                term += _remote_inductive(mol, ring, idx)
             sigma += term
             if donors is not None and key in _PI_DONORS and d == 3:
                 donors.append((idx, "sigma", term))
@@ -1308,11 +1306,12 @@ def imine(mol: Chem.Mol, n_idx: int) -> tuple[float, str]:
                 and (mol.GetAtomWithIdx(i).GetDegree() == 3 or mol.GetAtomWithIdx(i).GetTotalNumHs() > 0)
             ]
             from_n = _ordered_positions(ring, ring_n[0]) if ring_n else {}
+            beside_c = {x.GetIdx() for x in c.GetNeighbors()}
             for d, key, idx in _ring_substituents_at(mol, ring, c.GetIdx()):
                 if key in ("aza", "ring_nR", "oxo") or key.startswith("ring_"):
                     sigma += K.IMINE_AZA if key == "aza" else 0.0
                     continue
-                if key in _PI_DONORS and from_n.get(idx) in (1, 3) and idx not in {x.GetIdx() for x in c.GetNeighbors()}:
+                if key in _PI_DONORS and from_n.get(idx) in (1, 3) and idx not in beside_c:
                     sm, sp, _ = K.HAMMETT.get(key, (0.0, 0.0, 0.0))
                     sigma += sm + K.IMINE_RING_N_DONOR * (sp - sm)
                     continue
