@@ -883,8 +883,8 @@ def _free_basing(ctx: Context):
         if k >= -1.0:
             return None
         return r.finding(
-            f"The free amine is drawn from {comp.label}, but the strongest base present, {base.label} (conjugate "
-            f"acid pKa {pka_b:.1f}), is weaker than the amine (pKa {pka_bh:.1f}): K = 10^({pka_b:.1f} − "
+            f"The free amine is drawn from {comp.label}, but the strongest base present, {base.label}, whose "
+            f"conjugate acid has pKa {pka_b:.2f}, is weaker than the amine (pKa {pka_bh:.1f}): K = 10^({pka_b:.2f} − "
             f"{pka_bh:.1f}) ≈ 10^{k:.1f}, so the amine stays protonated: with one equivalent in water only about "
             f"{_freed_pct(k)} of it is freed at equilibrium, and a wash at the pH that base gives leaves most of it "
             "in the water.",
