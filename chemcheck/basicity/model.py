@@ -558,6 +558,8 @@ def _hammett_sum(
     constant (constants.DONOR_META_SHARE)."""
     ortho = sigma = 0.0
     subs = list(_ring_substituents_at(mol, ring, centre))
+    # the BETWEEN_AZA terms are for a ring N site; an amino group on a ring carbon is not one
+    centre_is_aza = mol.GetAtomWithIdx(centre).GetAtomicNum() == 7
     # an alkoxy group beside the N is not such a donor: its pull on the N outweighs its
     # resonance (2-methoxypyridine 3.28 against 5.25, CRC), and a donor para to it keeps its
     # full sigma_m (5-amino-2-methoxypyridine)
@@ -589,7 +591,7 @@ def _hammett_sum(
             sigma += _remote_inductive(mol, ring, idx)  # inductive: the same at every position
         if d == 1:
             term = ortho_table.get(key, default_ortho if key != "H" else 0.0)
-            if key in K.BETWEEN_AZA and _aza_beside(mol, ring, idx, centre):
+            if key in K.BETWEEN_AZA and centre_is_aza and _aza_beside(mol, ring, idx, centre):
                 term += K.BETWEEN_AZA[key]
             ortho += term
             if donors is not None and key in _PI_DONORS:
@@ -848,7 +850,10 @@ def _fused_ring_sigma(mol: Chem.Mol, ring: list[int], site: int) -> float:
             # conjugated (odd path) positions act with sigma_p, unless the shortest path runs
             # along the fusion bond: resonance does not cross it
             conjugated = d % 2 == 1 and not _crosses_fusion(mol, path)
-            total += (K.FUSED_RING_FACTOR ** lvl) * (sp if conjugated else sm)
+            term = (K.FUSED_RING_FACTOR ** lvl) * (sp if conjugated else sm)
+            if key in ("CH3", "alkyl", "tBu"):
+                term *= K.FUSED_ALKYL_SHARE
+            total += term
     return total
 
 
