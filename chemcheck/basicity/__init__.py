@@ -157,11 +157,14 @@ def _ring_bonds_kept(ref: Chem.Mol, mol: Chem.Mol, match: tuple[int, ...]) -> bo
     return True
 
 
-def _aldehydes_kept(ref: Chem.Mol, mol: Chem.Mol, match: tuple[int, ...]) -> bool:
-    """An aldehyde carbon of the reference is an aldehyde carbon in the compound too: a
+def _groups_kept(ref: Chem.Mol, mol: Chem.Mol, match: tuple[int, ...]) -> bool:
+    """Each matched atom keeps its charge, and an aldehyde carbon of the reference is an
+    aldehyde carbon in the compound too: a
     pyridinecarbaldehyde, whose measured value includes its hydrate, must not anchor a ketone or
     an ester that the substructure match also finds."""
     for a in ref.GetAtoms():
+        if mol.GetAtomWithIdx(match[a.GetIdx()]).GetFormalCharge() != a.GetFormalCharge():
+            return False  # an amino N of the reference is not the N of a nitro group
         if a.GetAtomicNum() != 6 or a.GetIsAromatic() or a.GetTotalNumHs() == 0:
             continue
         if any(b.GetBondType() == Chem.BondType.DOUBLE and b.GetOtherAtom(a).GetAtomicNum() == 8 for b in a.GetBonds()):
@@ -188,7 +191,7 @@ def _anchor(mol: Chem.Mol, idx: int, fam: str) -> tuple[_Ref, bool] | None:
         for match in mol.GetSubstructMatches(ref.mol, uniquify=False, maxMatches=50):
             if match[ref.site] != idx or not _ring_bonds_kept(ref.mol, mol, match):
                 continue
-            if not _aldehydes_kept(ref.mol, mol, match):
+            if not _groups_kept(ref.mol, mol, match):
                 continue
             if ref.smiles == key:
                 return ref, True
