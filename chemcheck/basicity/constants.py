@@ -42,6 +42,7 @@ HAMMETT: dict[str, tuple[float, float, float]] = {
     "OCF3": (0.38, 0.35, 0.27),
     "NH2": (-0.16, -0.66, -0.15),
     "NHR": (-0.21, -0.70, -0.70),
+    "NHAr": (-0.02, -0.56, -0.56),  # anilino, NHC6H5 [HLT, from memory]
     "NR2": (-0.16, -0.83, -0.12),
     "NHAc": (0.21, 0.00, -0.46),
     # the pyrrole-type N of a fused azole ring, seen from the other ring (imidazo[4,5-c]pyridine,
@@ -76,7 +77,7 @@ HAMMETT: dict[str, tuple[float, float, float]] = {
 # --- ortho increments: pKa(2-X parent) - pKa(parent), from [P65] (recalled) ----------------
 ORTHO_ANILINE: dict[str, float] = {
     "CH3": -0.16, "alkyl": -0.25, "tBu": -0.8, "OMe": -0.08, "OH": 0.12, "NH2": -0.13,
-    "NHR": -0.1, "NR2": -0.5, "F": -1.40, "Cl": -1.96, "Br": -2.07, "I": -2.0, "NO2": -4.86,
+    "NHR": -0.1, "NHAr": -0.1, "NR2": -0.5, "F": -1.40, "Cl": -1.96, "Br": -2.07, "I": -2.0, "NO2": -4.86,
     "CN": -3.6, "COOR": -2.4, "COR": -2.3, "CHO": -2.6, "COOH": -2.5, "CF3": -3.4, "Ph": -0.78,
     "SR": -1.15, "CONH2": -1.8, "NHAc": -0.9, "vinyl": -0.5, "fused": -0.68, "OPh": -1.2,
     "SO2R": -4.5, "SO2N": -4.0, "CH2X": -0.6, "CH2N": -0.2, "ethynyl": -1.6, "OAc": -1.5,
@@ -87,6 +88,7 @@ ORTHO_ANILINE: dict[str, float] = {
 }
 ORTHO_PYRIDINE: dict[str, float] = {
     "CH3": 0.72, "alkyl": 0.70, "tBu": 0.51, "NH2": 1.61, "NHR": 1.85, "NR2": 1.7, "OMe": -1.97,
+    "NHAr": 1.5,  # our estimate: NHR scaled by the sigma_p of the two groups (-0.56 against -0.70)
     "OPh": -2.2, "F": -5.69, "Cl": -4.53, "Br": -4.54, "I": -3.4, "CN": -5.5, "COOR": -3.0,
     "COR": -2.6, "CHO": -3.4, "CF3": -5.8, "NO2": -7.8, "Ph": -0.77, "SR": -1.66,
     "vinyl": -0.27, "CONH2": -3.2, "NHAc": -1.1, "CH2X": -0.4, "CH2N": -0.3, "OH": -5.0,
@@ -280,7 +282,7 @@ ALPHA_AZA_RESONANCE = 0.75
 # A hydroxy group para to the N: 4-hydroxypyridine is 4-pyridone in water, and the measured
 # pKa (3.27, Albert, from memory) is that of the pyridone; sigma 0.34 reproduces it, as the
 # ortho increment of OH (-5.0, 2-pyridone 0.75) does for the 2-isomer (sixth round).
-AZINE_PARA_SIGMA: dict[str, float] = {"SR": -0.15, "OH": 0.34}
+AZINE_PARA_SIGMA: dict[str, float] = {"SR": -0.15, "OH": 0.34, "NHR": -0.74}
 # Added to the ortho increment of an electronegative group that sits between the basic N and a
 # second ring N (C2 of a pyrimidine, a quinazoline or a 1,3,5-triazine). The second ring N has
 # already drawn electron density from that carbon, and the group's pull on the basic N is

@@ -14,7 +14,7 @@ from rdkit import Chem
 
 from . import constants as K
 
-_PI_DONORS = {"NH2", "NHR", "NR2", "OMe", "O-"}
+_PI_DONORS = {"NH2", "NHR", "NR2", "NHAr", "OMe", "O-"}
 
 
 def is_aza(atom: Chem.Atom) -> bool:
@@ -339,7 +339,7 @@ def classify_substituent(mol: Chem.Mol, ring_atom: Chem.Atom, x: Chem.Atom, ring
         if any(b.GetBondType() == Chem.BondType.DOUBLE for b in x.GetBonds()):
             return "N=N"
         if any(n.GetIsAromatic() for n in nbrs):
-            return "NHR"  # diarylamine: weaker donor
+            return "NHAr"  # an anilino group: its lone pair is shared with the other ring
         h = x.GetTotalNumHs()
         return {2: "NH2", 1: "NHR"}.get(h, "NR2")
     if z == 8:
@@ -1040,7 +1040,7 @@ def azine(mol: Chem.Mol, n_idx: int) -> tuple[float, str]:
             fixed = sum(K.AZA_SIGMA["meta" if d == 2 else "para"] for d in aza)
             fixed += sum(term for _i, kind, term in donors if kind == "sigma")
             sigma = fixed + K.DIAZINE_RHO_FACTOR * (sigma - fixed)
-        amino = sum(1 for _d, key in subs if key in ("NH2", "NHR", "NR2"))
+        amino = sum(1 for _d, key in subs if key in ("NH2", "NHR", "NR2", "NHAr"))
         if len(aza) == 1 and amino > 2:
             pka -= K.THIRD_AMINO * (amino - 2)
         if not strong_donor:
@@ -1150,7 +1150,7 @@ def _amidine_carbon_donor(mol: Chem.Mol, ring5: list[int], n_idx: int) -> bool:
                    for y in c.GetNeighbors()):
             continue
         for x in c.GetNeighbors():
-            if x.GetIdx() not in ring_set and classify_substituent(mol, c, x, ring_set) in ("NH2", "NHR", "NR2"):
+            if x.GetIdx() not in ring_set and classify_substituent(mol, c, x, ring_set) in ("NH2", "NHR", "NR2", "NHAr"):
                 return True
     return False
 
