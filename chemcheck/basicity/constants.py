@@ -165,6 +165,12 @@ AZA_ORTHO_INCREMENT = -2.9  # pyridazine (2.33) against pyridine (5.25)
 # the full sigma_m term). In pyridines the full rho holds (2-amino-5-nitropyridine 2.80, 2-amino-
 # 5-chloropyridine 4.71 against 2-aminopyridine 6.86, from memory). Our estimate.
 DIAZINE_RHO_FACTOR = 0.75
+# An amino group ortho or para to the N of a pyridine (no second ring N) takes much of the
+# cation's charge, as in an amidinium ion, and an alkyl group beside the ring N then adds this
+# share of its ortho increment: 2-amino-6-methylpyridine 7.41 against 2-aminopyridine 6.86 (from
+# memory) keeps about 0.75 of the 0.72 of 2-picoline, the 4-aminoquinaldines and the
+# 4-amino-2,6-dimethylpyridines much less. Our estimate.
+DONOR_ALKYL_ORTHO_SHARE = 0.6
 # A third amino group on a pyrimidine ring adds this much less than the additive sum: two amino
 # groups already spread the charge. Melamines, whose amino groups all sit between two ring N,
 # stay additive. Our estimate, checked as one number against the development set.

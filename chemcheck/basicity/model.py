@@ -1043,6 +1043,12 @@ def azine(mol: Chem.Mol, n_idx: int) -> tuple[float, str]:
         amino = sum(1 for _d, key in subs if key in ("NH2", "NHR", "NR2", "NHAr"))
         if len(aza) == 1 and amino > 2:
             pka -= K.THIRD_AMINO * (amino - 2)
+        if strong_donor and not aza:
+            # alkyl groups beside the N stabilise the amidinium-like cation less
+            alkyl_ortho = sum(
+                K.ORTHO_PYRIDINE[key] for d, key in subs if d == 1 and key in ("CH3", "alkyl", "tBu")
+            )
+            pka -= (1 - K.DONOR_ALKYL_ORTHO_SHARE) * alkyl_ortho
         if not strong_donor:
             pka += _peri(mol, ring6, n_idx)
         elif any(kind == "ortho" and term > 0 for _i, kind, term in donors) and not any(
