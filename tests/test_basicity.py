@@ -120,18 +120,18 @@ def _accuracy(path, cls=None):
 
 # Regression guards just above the accuracy measured when the methods landed
 # (docs/basicity.md). Of the basicity issue's goals, overall (0.5) and anilines (0.3) are met;
-# pyridines (0.3) are not yet (0.359).
+# pyridines (0.3) are not yet (0.326).
 @pytest.mark.parametrize(
     "classes,limit",
     [
-        (None, 0.455),
+        (None, 0.445),
         (("aniline_primary",), 0.25),
         (("aniline_primary", "aniline_secondary", "aniline_tertiary"), 0.32),
-        (("azine_polyaza",), 0.61),
-        (("other_heteroaromatic",), 0.53),
+        (("azine_polyaza",), 0.60),
+        (("other_heteroaromatic",), 0.52),
         (("aliphatic_primary", "aliphatic_secondary", "aliphatic_tertiary"), 0.40),
-        (("pyridine",), 0.38),
-        (("imidazole",), 0.47),
+        (("pyridine",), 0.345),
+        (("imidazole",), 0.45),
         (("amidine_guanidine",), 0.47),
     ],
 )
@@ -863,9 +863,18 @@ def test_a_peri_oxygen_takes_the_n_h_of_the_cation_instead_of_crowding_it():
 
 def test_a_peri_amino_group_holds_the_ring_n_in_a_hydrogen_bond():
     # 8-aminoquinoline 3.99 lies about 0.9 below quinoline 4.90 (Albert, from memory): more than
-    # the crowding of a peri methyl group, as its N-H binds the ring N's lone pair in the base
-    assert abs(first_protonation("Nc1cccc2cccnc12")[1] - 3.99) <= 0.3
-    assert first_protonation("Nc1cccc2cccnc12")[1] < first_protonation("Cc1cccc2cccnc12")[1]
+    # the crowding of a peri methyl group, as its N-H binds the ring N's lone pair in the base.
+    # 8-aminoquinoline is also in the reference table, so the class model is asked directly.
+    from chemcheck.basicity import model
+
+    def ring_n(smiles):
+        mol = Chem.MolFromSmiles(smiles)
+        n = next(a.GetIdx() for a in mol.GetAtoms() if a.GetIsAromatic() and a.GetAtomicNum() == 7)
+        return model.azine(mol, n)[0]
+
+    quinoline = ring_n("c1ccc2ncccc2c1")
+    assert abs(ring_n("Nc1cccc2cccnc12") - quinoline - (3.99 - 4.90)) <= 0.3
+    assert ring_n("Nc1cccc2cccnc12") < ring_n("Cc1cccc2cccnc12")
 
 
 def test_a_donor_para_to_the_ring_n_r_of_a_cyclic_amidine_conjugates_with_the_cation():
@@ -879,3 +888,39 @@ def test_a_donor_para_to_the_ring_n_r_of_a_cyclic_amidine_conjugates_with_the_ca
     methyl = first_protonation("Cc1ccn(C)c(=N)n1")[1]
     assert amino - parent >= 1.5
     assert amino - parent > 3 * (methyl - parent)
+
+
+def test_an_aldehyde_or_amino_reference_anchors_only_its_own_kind_of_group():
+    # pyridine-3-carbaldehyde's measured 3.80 (CRC, from memory) includes its hydrate and must
+    # not anchor the ester that the substructure match also finds; 8-aminoquinoline must not
+    # anchor 8-nitroquinoline (a nitro N is not an amino N). Methyl nicotinate lies close to
+    # ethyl nicotinate (3.35, CRC, from memory); a nitro group in the benzo ring takes quinoline
+    # (4.90, CRC) down by about two units (the nitroquinolines, Albert, from memory).
+    ester = [s for s in basic_sites("COC(=O)c1cccnc1") if s.kind == "pyridine_type"][0]
+    assert "carbaldehyde" not in ester.method
+    assert abs(ester.pka - 3.35) <= 0.35
+    nitro = [s for s in basic_sites("O=[N+]([O-])c1cccc2cccnc12") if s.kind == "pyridine_type"][0]
+    assert "8-aminoquinoline" not in nitro.method
+    assert 1.5 <= 4.90 - nitro.pka <= 3.0
+
+
+def test_an_anilino_group_gives_less_than_an_alkylamino_group():
+    # sigma_p of NHPh -0.56 against NHMe -0.70 (Hansch, Leo & Taft, Chem. Rev. 1991, 91, 165,
+    # from memory): with the pyridine rho of 5.9, 4-anilinopyridine lies most of a unit below
+    # 4-(methylamino)pyridine (9.65, Perrin's compilation as digitized by IUPAC); by the same constants an
+    # N-phenyl melamine lies below melamine
+    anilino = first_protonation("c1ccc(Nc2ccncc2)cc1")[1]
+    methylamino = first_protonation("CNc1ccncc1")[1]
+    assert abs(methylamino - 9.65) <= 0.2
+    assert 0.5 <= methylamino - anilino <= 1.5
+    assert first_protonation("Nc1nc(N)nc(Nc2ccccc2)n1")[1] < first_protonation("Nc1nc(N)nc(N)n1")[1]
+
+
+def test_an_amino_group_para_to_the_ring_n_damps_the_alkyl_groups_beside_it():
+    # 2-amino-6-methylpyridine 7.41 against 2-aminopyridine 6.86 (from memory): a methyl group
+    # beside the N adds about 0.55 here, less than the 0.72 of 2-picoline against pyridine
+    # (5.97 and 5.25, CRC)
+    amino = first_protonation("Nc1ccccn1")[1]
+    methyl = first_protonation("Cc1cccc(N)n1")[1]
+    assert abs(methyl - 7.41) <= 0.3
+    assert methyl - amino < 0.72

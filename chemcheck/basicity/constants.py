@@ -288,6 +288,10 @@ ALPHA_AZA_RESONANCE = 0.75
 # A hydroxy group para to the N: 4-hydroxypyridine is 4-pyridone in water, and the measured
 # pKa (3.27, Albert, from memory) is that of the pyridone; sigma 0.34 reproduces it, as the
 # ortho increment of OH (-5.0, 2-pyridone 0.75) does for the 2-isomer (sixth round).
+# An alkylamino group para to the N gives more than its sigma_p (-0.70) says, as its N-alkyl
+# group stabilises the amidinium-like cation: 4-(methylamino)pyridine 9.65 against
+# 4-aminopyridine 9.17 (Perrin's compilation; the first value as the IUPAC digitization has it)
+# puts it at -0.74, with rho 5.9 and sigma_p(NH2) -0.66.
 AZINE_PARA_SIGMA: dict[str, float] = {"SR": -0.15, "OH": 0.34, "NHR": -0.74}
 # Added to the ortho increment of an electronegative group that sits between the basic N and a
 # second ring N (C2 of a pyrimidine, a quinazoline or a 1,3,5-triazine). The second ring N has
