@@ -924,3 +924,12 @@ def test_an_amino_group_para_to_the_ring_n_damps_the_alkyl_groups_beside_it():
     methyl = first_protonation("Cc1cccc(N)n1")[1]
     assert abs(methyl - 7.41) <= 0.3
     assert methyl - amino < 0.72
+
+
+def test_a_donor_at_c3_of_a_quinoline_gives_little_to_the_ring_n():
+    # 3-aminoquinoline 4.91 is as basic as quinoline 4.90, while 3-aminopyridine (6.03) lies 0.8
+    # above pyridine (5.25) (Albert; CRC; from memory): the amino group's para atom is C8a and
+    # its lone pair goes into the benzo ring
+    amino = first_protonation("Nc1cnc2ccccc2c1")[1]
+    assert abs(amino - 4.91) <= 0.35
+    assert amino - first_protonation("c1ccc2ncccc2c1")[1] < first_protonation("Nc1cccnc1")[1] - 5.25 - 0.3

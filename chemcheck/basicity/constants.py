@@ -200,6 +200,15 @@ FUSED_RING_FACTOR = 0.5
 # methylquinolines lie within 0.2 of quinoline, where the full factor put a 7-methyl group
 # 0.5 above it). Our estimate, checked as one number against the development set.
 FUSED_ALKYL_SHARE = 0.5
+# A donor meta to the ring N whose para ring atom is the fusion atom of a benzo ring (C3 of a
+# quinoline, its para atom C8a) sends its resonance into the benzo ring rather than towards the
+# N: its sigma moves this share of the way from sigma_m to its field constant F [HLT, from
+# memory]. 3-aminoquinoline 4.91 lies at quinoline's 4.90, where 3-aminopyridine is 0.8 above
+# pyridine (Albert; CRC; from memory). Our estimate.
+FUSION_META_DONOR_SHARE = 0.5
+FUSION_META_DONOR_FIELD: dict[str, float] = {
+    "NH2": 0.08, "NHR": 0.03, "NR2": 0.15, "OMe": 0.29, "CH3": 0.01, "alkyl": 0.0, "SR": 0.23,
+}
 
 # Steric inhibition of resonance in N,N-dialkylanilines with an ortho alkyl group: the ortho
 # increment per crowding alkyl group. From N,N-dimethyl-o-toluidine (5.86) against

@@ -600,6 +600,8 @@ def _hammett_sum(
             sg = _sigma_for(key, d, para_minus)
             if d == 2 and conjugated_donor and key in K.DONOR_META_FIELD:
                 sg += K.DONOR_META_SHARE * (K.DONOR_META_FIELD[key] - sg)
+            elif d == 2 and centre_is_aza and key in K.FUSION_META_DONOR_FIELD and _para_is_fusion(mol, ring, idx):
+                sg += K.FUSION_META_DONOR_SHARE * (K.FUSION_META_DONOR_FIELD[key] - sg)
             if d == 2 and any(mol.GetBondBetweenAtoms(a, centre) for a in _aza_beside(mol, ring, idx, centre)):
                 sg += K.ALPHA_AZA_RESONANCE * (_sigma_for(key, 3, para_minus) - sg)
             if d == 3 and para_minus is None and key in _PI_ACCEPTORS:
@@ -610,6 +612,19 @@ def _hammett_sum(
             if donors is not None and key in _PI_DONORS and d == 3:
                 donors.append((idx, "sigma", term))
     return ortho, sigma
+
+
+def _para_is_fusion(mol: Chem.Mol, ring: list[int], idx: int) -> bool:
+    """Whether the ring atom para to ``idx`` is shared with a fused benzo ring (C8a seen from
+    C3 of a quinoline)."""
+    pos = _ordered_positions(ring, idx)
+    para = next(i for i in ring if pos[i] == 3)
+    ring_set = set(ring)
+    return any(
+        para in other and set(other) != ring_set
+        and all(mol.GetAtomWithIdx(i).GetAtomicNum() == 6 and mol.GetAtomWithIdx(i).GetIsAromatic() for i in other)
+        for other in mol.GetRingInfo().AtomRings()
+    )
 
 
 def _chain_sigma_star(mol: Chem.Mol, x: Chem.Atom, parent: Chem.Atom, ring: list[int]) -> float:
