@@ -933,3 +933,14 @@ def test_a_donor_at_c3_of_a_quinoline_gives_little_to_the_ring_n():
     amino = first_protonation("Nc1cnc2ccccc2c1")[1]
     assert abs(amino - 4.91) <= 0.35
     assert amino - first_protonation("c1ccc2ncccc2c1")[1] < first_protonation("Nc1cccnc1")[1] - 5.25 - 0.3
+
+
+def test_isoquinoline_amines_follow_the_bond_orders_of_the_ring():
+    # 1-aminoisoquinoline 7.62, isoquinoline 5.42, 3-aminoisoquinoline 5.05 (Albert, from
+    # memory): the amino group beside N2 raises the pKa across the C1-N2 bond of high
+    # double-bond character and hardly at all across the weak N2-C3 bond
+    one = first_protonation("Nc1nccc2ccccc12")[1]
+    three = first_protonation("Nc1cc2ccccc2cn1")[1]
+    assert abs(one - 7.62) <= 0.4
+    assert abs(three - 5.05) <= 0.4
+    assert one - three >= 2.0

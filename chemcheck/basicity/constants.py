@@ -206,6 +206,13 @@ FUSED_ALKYL_SHARE = 0.5
 # memory]. 3-aminoquinoline 4.91 lies at quinoline's 4.90, where 3-aminopyridine is 0.8 above
 # pyridine (Albert; CRC; from memory). Our estimate.
 FUSION_META_DONOR_SHARE = 0.5
+# A donor beside the ring N across the ring's beta-beta bond (C3 of an isoquinoline, the bond
+# opposite the benzo fusion, of low double-bond character) loses most of its resonance with the
+# N: its ortho increment is lowered by this factor times (sigma_p - sigma_m), its resonance
+# part. 3-aminoisoquinoline 5.05 lies below isoquinoline 5.42, where 1-aminoisoquinoline is at
+# 7.62 and 2-aminopyridine 1.6 above pyridine; 3-methylisoquinoline 5.64 (Albert, from memory).
+# Our estimate. Rings with a second ring N (quinazolines) are left out: their cations add water.
+BETA_BOND_RHO = 4.0
 FUSION_META_DONOR_FIELD: dict[str, float] = {
     "NH2": 0.08, "NHR": 0.03, "NR2": 0.15, "OMe": 0.29, "CH3": 0.01, "alkyl": 0.0, "SR": 0.23,
 }
@@ -324,6 +331,10 @@ AZOLE_AMIDINE_DONOR_SHARE = 0.6
 # the peri C-H. 2-aminoquinoline 7.34 against 2-aminopyridine 6.86 while quinoline 4.90 lies
 # below pyridine 5.25 (CRC, from memory): 0.48 + 0.35.
 DONOR_FUSED_ORTHO = 0.8
+# The same when the donor sits on the carbon next to the fusion and the N does not
+# (1-aminoisoquinoline 7.62 against 2-aminopyridine 6.86, with isoquinoline 5.42 against
+# pyridine 5.25; Albert, from memory): 0.76 - 0.17.
+DONOR_ALPHA_ORTHO = 0.6
 # Per carbon on the alpha carbons of the two N-alkyl groups of an N,N-dialkylaniline, added to
 # its basicity (steric inhibition of resonance of the NR2 group, model.aniline). Our estimate
 # from N,N-diethylaniline 6.57 against N,N-dimethylaniline 5.07 [CRC], less what sigma* gives.

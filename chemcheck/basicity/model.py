@@ -560,6 +560,7 @@ def _hammett_sum(
     subs = list(_ring_substituents_at(mol, ring, centre))
     # the BETWEEN_AZA terms are for a ring N site; an amino group on a ring carbon is not one
     centre_is_aza = mol.GetAtomWithIdx(centre).GetAtomicNum() == 7
+    second_aza = any(key == "aza" for _d, key, _i in subs)
     # an alkoxy group beside the N is not such a donor: its pull on the N outweighs its
     # resonance (2-methoxypyridine 3.28 against 5.25, CRC), and a donor para to it keeps its
     # full sigma_m (5-amino-2-methoxypyridine)
@@ -593,6 +594,9 @@ def _hammett_sum(
             term = ortho_table.get(key, default_ortho if key != "H" else 0.0)
             if key in K.BETWEEN_AZA and centre_is_aza and _aza_beside(mol, ring, idx, centre):
                 term += K.BETWEEN_AZA[key]
+            if centre_is_aza and key in K.HAMMETT and not second_aza and _beta_bond(mol, ring, centre, idx):
+                sm, sp, _ = K.HAMMETT[key]
+                term += K.BETA_BOND_RHO * min(0.0, sp - sm)
             ortho += term
             if donors is not None and key in _PI_DONORS:
                 donors.append((idx, "ortho", term))
@@ -612,6 +616,39 @@ def _hammett_sum(
             if donors is not None and key in _PI_DONORS and d == 3:
                 donors.append((idx, "sigma", term))
     return ortho, sigma
+
+
+def _beta_bond(mol: Chem.Mol, ring: list[int], a: int, b: int) -> bool:
+    """Whether ring atoms ``a`` and ``b`` form the bond opposite a benzo fusion (N2-C3 of an
+    isoquinoline, the beta-beta bond of a naphthalene), whose double-bond character is the
+    lowest of the ring (bond orders about 1.60 against 1.72 for an alpha-beta bond; C. A.
+    Coulson's Hueckel orders of naphthalene): a donor there conjugates with the site N through
+    it only weakly."""
+    ring_set = set(ring)
+    fusion = set()
+    for other in mol.GetRingInfo().AtomRings():
+        shared = ring_set & set(other)
+        if len(shared) == 2 and all(
+            mol.GetAtomWithIdx(i).GetAtomicNum() == 6 and mol.GetAtomWithIdx(i).GetIsAromatic() for i in other
+        ):
+            fusion |= shared
+    if len(fusion) != 2:
+        return False
+    alpha = {n.GetIdx() for f in fusion for n in mol.GetAtomWithIdx(f).GetNeighbors() if n.GetIdx() in ring_set}
+    return not ({a, b} & (alpha | fusion))
+
+
+def _next_to_benzo_fusion(mol: Chem.Mol, ring: list[int], idx: int) -> bool:
+    """Whether ring atom ``idx`` is bonded to an atom the ring shares with a fused benzo ring
+    (C1 of an isoquinoline)."""
+    ring_set = set(ring)
+    for other in mol.GetRingInfo().AtomRings():
+        shared = ring_set & set(other)
+        if len(shared) == 2 and all(
+            mol.GetAtomWithIdx(i).GetAtomicNum() == 6 and mol.GetAtomWithIdx(i).GetIsAromatic() for i in other
+        ) and any(mol.GetBondBetweenAtoms(idx, f) is not None for f in shared):
+            return True
+    return False
 
 
 def _para_is_fusion(mol: Chem.Mol, ring: list[int], idx: int) -> bool:
@@ -1072,7 +1109,16 @@ def azine(mol: Chem.Mol, n_idx: int) -> tuple[float, str]:
             # with an amino group beside the N, a fused ring beside it on the other side adds to
             # the basicity (2-aminoquinoline, 2-aminoquinazoline): constants.DONOR_FUSED_ORTHO;
             # not when a further ring crowds the N from the peri position (benzo[h]quinoline)
-            pka += K.DONOR_FUSED_ORTHO * sum(1 for d, key in subs if d == 1 and key == "fused")
+            fused_beside = sum(1 for d, key in subs if d == 1 and key == "fused")
+            pka += K.DONOR_FUSED_ORTHO * fused_beside
+            if not fused_beside:
+                # the same amidine-like unit with the donor on the carbon next to the fusion
+                # (1-aminoisoquinoline): the donor-N bond is the ring's alpha-beta bond of high
+                # double-bond character (constants.DONOR_ALPHA_ORTHO)
+                pka += K.DONOR_ALPHA_ORTHO * sum(
+                    1 for i, kind, term in donors
+                    if kind == "ortho" and term > 0 and _next_to_benzo_fusion(mol, ring6, i)
+                )
         return pka + ortho - K.PYRIDINE["rho"] * sigma, f"Hammett equation, pyridine-type N (sum sigma {sigma:+.2f})"
     ring5 = _ring_of(mol, n_idx, 5)
     if ring5 is None:
