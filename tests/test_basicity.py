@@ -128,7 +128,7 @@ def _accuracy(path, cls=None):
         (("aniline_primary",), 0.25),
         (("aniline_primary", "aniline_secondary", "aniline_tertiary"), 0.32),
         (("azine_polyaza",), 0.60),
-        (("other_heteroaromatic",), 0.52),
+        (("other_heteroaromatic",), 0.50),
         (("aliphatic_primary", "aliphatic_secondary", "aliphatic_tertiary"), 0.40),
         (("pyridine",), 0.345),
         (("imidazole",), 0.45),
