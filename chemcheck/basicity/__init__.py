@@ -163,8 +163,14 @@ def _groups_kept(ref: Chem.Mol, mol: Chem.Mol, match: tuple[int, ...]) -> bool:
     pyridinecarbaldehyde, whose measured value includes its hydrate, must not anchor a ketone or
     an ester that the substructure match also finds."""
     for a in ref.GetAtoms():
-        if mol.GetAtomWithIdx(match[a.GetIdx()]).GetFormalCharge() != a.GetFormalCharge():
+        target = mol.GetAtomWithIdx(match[a.GetIdx()])
+        if target.GetFormalCharge() != a.GetFormalCharge():
             return False  # an amino N of the reference is not the N of a nitro group
+        if (
+            not a.GetIsAromatic() and any(n.GetIsAromatic() for n in a.GetNeighbors())
+            and target.GetHybridization() != a.GetHybridization()
+        ):
+            return False  # the methyl C of a picoline is not the carbonyl C of an ester
         if a.GetAtomicNum() != 6 or a.GetIsAromatic() or a.GetTotalNumHs() == 0:
             continue
         if any(b.GetBondType() == Chem.BondType.DOUBLE and b.GetOtherAtom(a).GetAtomicNum() == 8 for b in a.GetBonds()):
