@@ -949,3 +949,19 @@ def test_isoquinoline_amines_follow_the_bond_orders_of_the_ring():
     assert abs(one - 7.62) <= 0.4
     assert abs(three - 5.05) <= 0.4
     assert one - three >= 2.0
+
+
+def test_a_second_withdrawing_group_beside_the_ring_n_adds_less():
+    # 2,6-dichloropyridine -2.86 against 2-chloropyridine 0.72 and pyridine 5.25 (CRC, from
+    # memory): the second Cl costs 3.6, the first 4.5. Both are in the reference table, so the
+    # class model is asked directly.
+    from chemcheck.basicity import model
+
+    def ring_n(smiles):
+        mol = Chem.MolFromSmiles(smiles)
+        n = next(a.GetIdx() for a in mol.GetAtoms() if a.GetIsAromatic() and a.GetAtomicNum() == 7)
+        return model.azine(mol, n)[0]
+
+    one, two = ring_n("Clc1ccccn1"), ring_n("Clc1cccc(Cl)n1")
+    assert abs(two - (-2.86)) <= 0.4
+    assert one - two < ring_n("c1ccncc1") - one

@@ -171,6 +171,10 @@ DIAZINE_RHO_FACTOR = 0.75
 # memory) keeps about 0.75 of the 0.72 of 2-picoline, the 4-aminoquinaldines and the
 # 4-amino-2,6-dimethylpyridines much less. Our estimate.
 DONOR_ALKYL_ORTHO_SHARE = 0.6
+# With electron-withdrawing groups on both sides of a pyridine N the second adds this share of
+# its ortho increment: 2,6-dichloropyridine -2.86 against 2-chloropyridine 0.72 and pyridine
+# 5.25 (CRC, from memory), 3.58 against 4.53.
+SECOND_ORTHO_EWG = 0.8
 # A third amino group on a pyrimidine ring adds this much less than the additive sum: two amino
 # groups already spread the charge. Melamines, whose amino groups all sit between two ring N,
 # stay additive. Our estimate, checked as one number against the development set.

@@ -1095,6 +1095,12 @@ def azine(mol: Chem.Mol, n_idx: int) -> tuple[float, str]:
         amino = sum(1 for _d, key in subs if key in ("NH2", "NHR", "NR2", "NHAr"))
         if len(aza) == 1 and amino > 2:
             pka -= K.THIRD_AMINO * (amino - 2)
+        ortho_ewg = sorted(
+            K.ORTHO_PYRIDINE[key] for d, key in subs if d == 1 and K.ORTHO_PYRIDINE.get(key, 0.0) < 0 and key != "fused"
+        )
+        if len(ortho_ewg) >= 2 and not aza:
+            # the second electron-withdrawing group beside the N adds less (constants.SECOND_ORTHO_EWG)
+            pka -= (1 - K.SECOND_ORTHO_EWG) * ortho_ewg[-1]
         if strong_donor and not aza:
             # alkyl groups beside the N stabilise the amidinium-like cation less
             alkyl_ortho = sum(
