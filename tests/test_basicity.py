@@ -965,3 +965,12 @@ def test_a_second_withdrawing_group_beside_the_ring_n_adds_less():
     one, two = ring_n("Clc1ccccn1"), ring_n("Clc1cccc(Cl)n1")
     assert abs(two - (-2.86)) <= 0.4
     assert one - two < ring_n("c1ccncc1") - one
+
+
+def test_a_hydroxyethyl_group_beside_the_ring_n_holds_its_lone_pair():
+    # the O-H of 2-(2-hydroxyethyl)pyridine binds the ring N of the free base in a six-membered
+    # ring, so it lies further below 2-ethylpyridine (5.89, CRC) than the 4-isomer lies below
+    # 4-ethylpyridine (6.02, CRC) (intramolecular hydrogen bond; common practice)
+    ortho = first_protonation("CCc1ccccn1")[1] - first_protonation("OCCc1ccccn1")[1]
+    para = first_protonation("CCc1ccncc1")[1] - first_protonation("OCCc1ccncc1")[1]
+    assert ortho > para + 0.2

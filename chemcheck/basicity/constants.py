@@ -175,6 +175,12 @@ DONOR_ALKYL_ORTHO_SHARE = 0.6
 # its ortho increment: 2,6-dichloropyridine -2.86 against 2-chloropyridine 0.72 and pyridine
 # 5.25 (CRC, from memory), 3.58 against 4.53.
 SECOND_ORTHO_EWG = 0.8
+# A hydroxy group on the second or third carbon of a chain beside a pyridine N holds the N's
+# lone pair in a six- or seven-membered hydrogen-bonded ring in the free base, on top of its
+# inductive pull: 2-(2-hydroxyethyl)pyridine 5.31 (Perrin's compilation, as the IUPAC
+# digitization has it) against 2-ethylpyridine 5.89 (CRC), where the 4-isomers differ by 0.4.
+# Our estimate.
+ORTHO_OH_HBOND = -0.35
 # A third amino group on a pyrimidine ring adds this much less than the additive sum: two amino
 # groups already spread the charge. Melamines, whose amino groups all sit between two ring N,
 # stay additive. Our estimate, checked as one number against the development set.

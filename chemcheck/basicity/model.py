@@ -651,6 +651,35 @@ def _next_to_benzo_fusion(mol: Chem.Mol, ring: list[int], idx: int) -> bool:
     return False
 
 
+def _ring_neighbours(mol: Chem.Mol, ring: list[int], idx: int) -> list[int]:
+    return [n.GetIdx() for n in mol.GetAtomWithIdx(idx).GetNeighbors() if n.GetIdx() in set(ring)]
+
+
+def _chain_oh(mol: Chem.Mol, ring: list[int], idx: int) -> bool:
+    """Whether ring atom ``idx`` carries an open sp3 chain with a hydroxy group on its second or
+    third carbon (2-(2-hydroxyethyl)pyridine), which can reach the N beside it in a six- or
+    seven-membered hydrogen-bonded ring."""
+    ring_set = set(ring)
+    for c1 in mol.GetAtomWithIdx(idx).GetNeighbors():
+        if c1.GetIdx() in ring_set or c1.GetAtomicNum() != 6 or c1.GetIsAromatic() or c1.IsInRing():
+            continue
+        frontier, seen = [c1], {idx, c1.GetIdx()}
+        for _depth in range(2):
+            nxt = []
+            for c in frontier:
+                for y in c.GetNeighbors():
+                    if y.GetIdx() in seen:
+                        continue
+                    seen.add(y.GetIdx())
+                    if y.GetAtomicNum() == 6 and not y.GetIsAromatic() and not y.IsInRing() and y.GetHybridization() == Chem.HybridizationType.SP3:
+                        nxt.append(y)
+            for c in nxt:
+                if any(o.GetAtomicNum() == 8 and o.GetTotalNumHs() == 1 and o.GetDegree() == 1 for o in c.GetNeighbors()):
+                    return True
+            frontier = nxt
+    return False
+
+
 def _para_is_fusion(mol: Chem.Mol, ring: list[int], idx: int) -> bool:
     """Whether the ring atom para to ``idx`` is shared with a fused benzo ring (C8a seen from
     C3 of a quinoline)."""
@@ -1095,6 +1124,7 @@ def azine(mol: Chem.Mol, n_idx: int) -> tuple[float, str]:
         amino = sum(1 for _d, key in subs if key in ("NH2", "NHR", "NR2", "NHAr"))
         if len(aza) == 1 and amino > 2:
             pka -= K.THIRD_AMINO * (amino - 2)
+        pka += K.ORTHO_OH_HBOND * sum(1 for i in _ring_neighbours(mol, ring6, n_idx) if _chain_oh(mol, ring6, i))
         ortho_ewg = sorted(
             K.ORTHO_PYRIDINE[key] for d, key in subs if d == 1 and K.ORTHO_PYRIDINE.get(key, 0.0) < 0 and key != "fused"
         )
