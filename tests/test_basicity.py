@@ -974,3 +974,12 @@ def test_a_hydroxyethyl_group_beside_the_ring_n_holds_its_lone_pair():
     ortho = first_protonation("CCc1ccccn1")[1] - first_protonation("OCCc1ccccn1")[1]
     para = first_protonation("CCc1ccncc1")[1] - first_protonation("OCCc1ccncc1")[1]
     assert ortho > para + 0.2
+
+
+def test_the_groups_beyond_the_first_heteroatom_of_a_ch2x_chain_still_pull():
+    # two phenyl groups on the carbinol carbon of 2-pyridylmethanol add their inductive pull
+    # (Taft sigma* of phenyl 0.6; Perrin, Dempsey & Serjeant 1981): the diphenyl carbinol is
+    # the weaker base, and a methoxymethyl group (nothing beyond its O) is not changed by it
+    plain = first_protonation("OCc1ccccn1")[1]
+    diphenyl = first_protonation("OC(c1ccccc1)(c1ccccc1)c1ccccn1")[1]
+    assert diphenyl < plain - 0.3

@@ -590,6 +590,8 @@ def _hammett_sum(
             ortho += _amino_n_withdrawal(mol, ring, idx)
         if key in ("alkyl", "tBu"):
             sigma += _remote_inductive(mol, ring, idx)  # inductive: the same at every position
+        elif key in ("CH2X", "CH2N"):
+            sigma += _remote_inductive(mol, ring, idx, beyond_first=True)
         if d == 1:
             term = ortho_table.get(key, default_ortho if key != "H" else 0.0)
             if key in K.BETWEEN_AZA and centre_is_aza and _aza_beside(mol, ring, idx, centre):
@@ -728,7 +730,7 @@ def _amino_n_withdrawal(mol: Chem.Mol, ring: list[int], idx: int) -> float:
     return total
 
 
-def _remote_inductive(mol: Chem.Mol, ring: list[int], idx: int) -> float:
+def _remote_inductive(mol: Chem.Mol, ring: list[int], idx: int, beyond_first: bool = False) -> float:
     """The inductive sigma of polar groups further out on an open alkyl chain on ring atom
     ``idx`` (2-(2-hydroxyethyl)pyridine, 3-(3-chloropropyl)aniline), which the Hammett key
     "alkyl" leaves out: Taft's relation sigma_I(X) = 0.45 sigma*(CH2X) with X the whole chain,
@@ -738,14 +740,27 @@ def _remote_inductive(mol: Chem.Mol, ring: list[int], idx: int) -> float:
     groups is in their Hammett constants."""
     ring_set = set(ring)
     atom = mol.GetAtomWithIdx(idx)
-    return sum(_remote_inductive_of(mol, ring_set, atom, x) for x in atom.GetNeighbors() if x.GetIdx() not in ring_set)
+    return sum(
+        _remote_inductive_of(mol, ring_set, atom, x, beyond_first)
+        for x in atom.GetNeighbors() if x.GetIdx() not in ring_set
+    )
 
 
-def _remote_inductive_of(mol: Chem.Mol, ring_set: set[int], atom: Chem.Atom, x: Chem.Atom) -> float:
-    """``_remote_inductive`` for the one chain that starts at ``x`` on ring atom ``atom``."""
+def _remote_inductive_of(
+    mol: Chem.Mol, ring_set: set[int], atom: Chem.Atom, x: Chem.Atom, beyond_first: bool = False
+) -> float:
+    """``_remote_inductive`` for the one chain that starts at ``x`` on ring atom ``atom``. With
+    ``beyond_first`` (a CH2X or CH2N group, whose Hammett constants hold one heteroatom), the
+    strongest heteroatom term on the first carbon is left out and the rest counts."""
     if x.GetAtomicNum() != 6 or x.IsInRing() or x.GetIsAromatic():
         return 0.0
     s = group_sigma_star(mol, x, atom, path=ring_set)
+    if beyond_first:
+        hetero = [
+            _term(mol, y, x, mol.GetBondBetweenAtoms(x.GetIdx(), y.GetIdx()), 0, ring_set | {x.GetIdx()})
+            for y in x.GetNeighbors() if y.GetIdx() != atom.GetIdx() and y.GetAtomicNum() not in (1, 6)
+        ]
+        s -= max(hetero, default=0.0)
     return K.SIGMA_I_PER_SIGMA_STAR * K.ATTENUATION * max(0.0, s)
 
 
@@ -1199,6 +1214,8 @@ def azine(mol: Chem.Mol, n_idx: int) -> tuple[float, str]:
             sm, sp, spm = K.HAMMETT.get(key, (0.0, 0.0, 0.0))
             if key in ("alkyl", "tBu"):
                 sigma += _remote_inductive_of(mol, ring_set, atom, x)
+            elif key in ("CH2X", "CH2N"):
+                sigma += _remote_inductive_of(mol, ring_set, atom, x, beyond_first=True)
             if idx in adjacent:
                 if key in _PI_ACCEPTORS and key not in ("SR", "SH") and pyrrole_n:
                     # conjugated with the lone pair of the ring's pyrrole-type N through the
