@@ -983,3 +983,12 @@ def test_the_groups_beyond_the_first_heteroatom_of_a_ch2x_chain_still_pull():
     plain = first_protonation("OCc1ccccn1")[1]
     diphenyl = first_protonation("OC(c1ccccc1)(c1ccccc1)c1ccccn1")[1]
     assert diphenyl < plain - 0.3
+
+
+def test_a_nitro_group_beside_an_alkylamino_group_turns_its_alkyl_towards_the_ring_n():
+    # in a 2-(alkylamino)-3-nitropyridine the N-H is held by the nitro group, so the alkyl group
+    # faces the ring N (intramolecular hydrogen bond; common practice): N-methylation costs
+    # more basicity there than in the 5-nitro isomer, where the group can turn its N-H to the N
+    locked = first_protonation("CNc1ncccc1[N+](=O)[O-]")[1] - first_protonation("Nc1ncccc1[N+](=O)[O-]")[1]
+    free = first_protonation("CNc1ccc([N+](=O)[O-])cn1")[1] - first_protonation("Nc1ccc([N+](=O)[O-])cn1")[1]
+    assert locked < free - 0.3

@@ -682,6 +682,30 @@ def _chain_oh(mol: Chem.Mol, ring: list[int], idx: int) -> bool:
     return False
 
 
+def _locked_nhr(mol: Chem.Mol, ring: list[int], idx: int, site: int) -> bool:
+    """Whether ring atom ``idx`` (beside the site N) carries an NHR group whose N-H is held by
+    a nitro group on the ring atom on its other side (a 2-(alkylamino)-3-nitropyridine): the
+    hydrogen bond turns the N-alkyl group towards the site N, where it crowds the N-H of the
+    cation. A carboxamide there does not hold it as firmly (the pyrazinecarboxamides)."""
+    ring_set = set(ring)
+    atom = mol.GetAtomWithIdx(idx)
+    amino = [
+        x for x in atom.GetNeighbors()
+        if x.GetIdx() not in ring_set and classify_substituent(mol, atom, x, ring_set) == "NHR"
+    ]
+    if not amino:
+        return False
+    for nb in atom.GetNeighbors():
+        if nb.GetIdx() not in ring_set or nb.GetIdx() == site:
+            continue
+        for y in nb.GetNeighbors():
+            if y.GetIdx() in ring_set:
+                continue
+            if classify_substituent(mol, nb, y, ring_set) == "NO2":
+                return True
+    return False
+
+
 def _para_is_fusion(mol: Chem.Mol, ring: list[int], idx: int) -> bool:
     """Whether the ring atom para to ``idx`` is shared with a fused benzo ring (C8a seen from
     C3 of a quinoline)."""
@@ -1140,6 +1164,7 @@ def azine(mol: Chem.Mol, n_idx: int) -> tuple[float, str]:
         if len(aza) == 1 and amino > 2:
             pka -= K.THIRD_AMINO * (amino - 2)
         pka += K.ORTHO_OH_HBOND * sum(1 for i in _ring_neighbours(mol, ring6, n_idx) if _chain_oh(mol, ring6, i))
+        pka += K.LOCKED_NHR * sum(1 for i in _ring_neighbours(mol, ring6, n_idx) if _locked_nhr(mol, ring6, i, n_idx))
         ortho_ewg = sorted(
             K.ORTHO_PYRIDINE[key] for d, key in subs if d == 1 and K.ORTHO_PYRIDINE.get(key, 0.0) < 0 and key != "fused"
         )
