@@ -325,7 +325,9 @@ ALPHA_AZA_RESONANCE = 0.75
 # group stabilises the amidinium-like cation: 4-(methylamino)pyridine 9.65 against
 # 4-aminopyridine 9.17 (Perrin's compilation; the first value as the IUPAC digitization has it)
 # puts it at -0.74, with rho 5.9 and sigma_p(NH2) -0.66.
-AZINE_PARA_SIGMA: dict[str, float] = {"SR": -0.15, "OH": 0.34, "NHR": -0.74}
+# A nitro group para to the N: its field constant (0.65) puts 4-nitropyridine at 1.41, where it
+# is 1.61 (CRC, from memory): 0.61.
+AZINE_PARA_SIGMA: dict[str, float] = {"SR": -0.15, "OH": 0.34, "NHR": -0.74, "NO2": 0.61}
 # Added to the ortho increment of an electronegative group that sits between the basic N and a
 # second ring N (C2 of a pyrimidine, a quinazoline or a 1,3,5-triazine). The second ring N has
 # already drawn electron density from that carbon, and the group's pull on the basic N is
