@@ -992,3 +992,13 @@ def test_a_nitro_group_beside_an_alkylamino_group_turns_its_alkyl_towards_the_ri
     locked = first_protonation("CNc1ncccc1[N+](=O)[O-]")[1] - first_protonation("Nc1ncccc1[N+](=O)[O-]")[1]
     free = first_protonation("CNc1ccc([N+](=O)[O-])cn1")[1] - first_protonation("Nc1ccc([N+](=O)[O-])cn1")[1]
     assert locked < free - 0.3
+
+
+def test_a_methoxy_group_adds_less_to_an_aminopyridine_than_to_pyridine():
+    # pi-donors conjugated with the same cationic centre saturate (the amino group already holds
+    # the charge of the 2-aminopyridinium ion; common practice): 4-methoxypyridine lies 1.22
+    # above pyridine (6.47 and 5.25, CRC), the 4-methoxy group of 2-amino-4-methoxypyridine adds
+    # less to 2-aminopyridine (6.86, CRC)
+    gain_plain = first_protonation("COc1ccncc1")[1] - first_protonation("c1ccncc1")[1]
+    gain_amino = first_protonation("COc1ccnc(N)c1")[1] - first_protonation("Nc1ccccn1")[1]
+    assert gain_amino < gain_plain - 0.2

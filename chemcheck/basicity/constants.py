@@ -171,6 +171,13 @@ DIAZINE_RHO_FACTOR = 0.75
 # memory) keeps about 0.75 of the 0.72 of 2-picoline, the 4-aminoquinaldines and the
 # 4-amino-2,6-dimethylpyridines much less. Our estimate.
 DONOR_ALKYL_ORTHO_SHARE = 0.6
+# An alkoxy group ortho or para to the N of such an aminopyridine gives up part of its
+# resonance to the stronger amino donor, which holds the cation's charge (the saturation of
+# pi-donors that breaks Hammett additivity): the pKa falls by this share of the amino group's
+# increment. 2-amino-4-methoxypyridine 7.62 against 8.08 from the additive terms, and
+# 3,4-diamino-2-methoxypyridine 5.68 against 7.1 (Perrin's compilation, as the IUPAC
+# digitization has it). Our estimate.
+ALKOXY_DONOR_LOSS = 0.3
 # With electron-withdrawing groups on both sides of a pyridine N the second adds this share of
 # its ortho increment: 2,6-dichloropyridine -2.86 against 2-chloropyridine 0.72 and pyridine
 # 5.25 (CRC, from memory), 3.58 against 4.53.

@@ -1172,6 +1172,16 @@ def azine(mol: Chem.Mol, n_idx: int) -> tuple[float, str]:
             # the second electron-withdrawing group beside the N adds less (constants.SECOND_ORTHO_EWG)
             pka -= (1 - K.SECOND_ORTHO_EWG) * ortho_ewg[-1]
         if strong_donor and not aza:
+            # an alkoxy group conjugated with the N next to a stronger amino donor loses part of
+            # its resonance to it (constants.ALKOXY_DONOR_LOSS)
+            keys_at = {i: key for _d, key, i in _ring_substituents_at(mol, ring6, n_idx)}
+            amino_inc = max(
+                (term if kind == "ortho" else -K.PYRIDINE["rho"] * term
+                 for i, kind, term in donors if keys_at.get(i) in ("NH2", "NHR", "NR2")),
+                default=0.0,
+            )
+            n_alkoxy = sum(1 for d, key in subs if key == "OMe" and d in (1, 3))
+            pka -= K.ALKOXY_DONOR_LOSS * max(amino_inc, 0.0) * n_alkoxy
             # alkyl groups beside the N stabilise the amidinium-like cation less
             alkyl_ortho = sum(
                 K.ORTHO_PYRIDINE[key] for d, key in subs if d == 1 and key in ("CH3", "alkyl", "tBu")
