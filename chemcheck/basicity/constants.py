@@ -191,7 +191,10 @@ ORTHO_OH_HBOND = -0.35
 # An alkylamino group beside the N whose N-H is held by a nitro group on its other side turns
 # its alkyl group towards the ring N: 2-(methylamino)-3-nitropyridine 2.41 against 2.9 from
 # the additive terms (Perrin's compilation, as the IUPAC digitization has it), and the same
-# for the 4-(methylamino)-5-nitropyrimidines. Our estimate.
+# for the 4-(methylamino)-5-nitropyrimidines. The same N-H bond holds the NHR group of an
+# N-alkyl-2-nitroaniline planar and in full conjugation with the nitro group: N-methyl-,
+# N-ethyl- and N-isopropyl-2-nitroaniline lie about 0.6 below 2-nitroaniline plus the N-alkyl
+# increment (same source). Our estimate, one number for both.
 LOCKED_NHR = -0.5
 # A third amino group on a pyrimidine ring adds this much less than the additive sum: two amino
 # groups already spread the charge. Melamines, whose amino groups all sit between two ring N,

@@ -1089,6 +1089,16 @@ def aniline(mol: Chem.Mol, n_idx: int) -> tuple[float, str]:
         ortho += K.ANILINE_DIALKYL_CROWD * sum(
             sum(1 for y in x.GetNeighbors() if y.GetIdx() != n_idx and y.GetAtomicNum() == 6) for x in alkyls
         )
+    if n_alkyl == 1 and n.GetTotalNumHs() == 1 and len(ring) == 6:
+        # an N-H held by an ortho nitro group keeps the NHR group planar and turns its alkyl
+        # group away (constants.LOCKED_NHR)
+        ring_set = set(ring)
+        if any(
+            classify_substituent(mol, r, y, ring_set) == "NO2"
+            for r in ipso.GetNeighbors() if r.GetIdx() in ring_set
+            for y in r.GetNeighbors() if y.GetIdx() not in ring_set
+        ):
+            ortho += K.LOCKED_NHR
     rho = K.ANILINE["rho"] if n_alkyl == 0 else K.ANILINE_N_ALKYL_RHO
     return pka + ortho - rho * sigma, f"Hammett equation, aniline (sum sigma {sigma:+.2f})"
 
