@@ -54,16 +54,16 @@ COMMON_BASES = [
     ("guanidine", "NC(N)=N", 13.6, 0.3),
     ("hydrazine", "NN", 8.1, 0.2),
     ("hydroxylamine", "NO", 6.0, 0.15),
+    ("3,5-lutidine", "Cc1cncc(C)c1", 6.15, 0.15),
+    ("3-methoxypyridine", "COc1cccnc1", 4.9, 0.15),
+    ("4-tert-butylpyridine", "CC(C)(C)c1ccncc1", 6.0, 0.15),
     # modelled or anchored (not in the reference table): wider tolerance
     ("3,4-dimethylaniline", "Cc1ccc(N)cc1C", 5.2, 0.4),
     ("4-ethylaniline", "CCc1ccc(N)cc1", 5.0, 0.4),
     ("3-bromoaniline", "Nc1cccc(Br)c1", 3.5, 0.4),
     ("4-iodoaniline", "Nc1ccc(I)cc1", 3.8, 0.4),
     ("3-nitroaniline N-methyl", "CNc1cccc(c1)[N+](=O)[O-]", 2.5, 0.6),
-    ("3,5-lutidine", "Cc1cncc(C)c1", 6.15, 0.4),
     ("4-ethylpyridine", "CCc1ccncc1", 6.0, 0.4),
-    ("3-methoxypyridine", "COc1cccnc1", 4.9, 0.5),
-    ("4-tert-butylpyridine", "CC(C)(C)c1ccncc1", 6.0, 0.4),
     ("N-ethylmorpholine", "CCN1CCOCC1", 7.7, 0.4),
     ("N,N-dimethylbenzylamine", "CN(C)Cc1ccccc1", 8.9, 0.5),
     ("N-methylbenzylamine", "CNCc1ccccc1", 9.6, 0.4),
@@ -119,19 +119,19 @@ def _accuracy(path, cls=None):
 
 
 # Regression guards just above the accuracy measured when the methods landed
-# (docs/basicity.md). Of the basicity issue's goals, overall (0.5) and anilines (0.3) are met;
-# pyridines (0.3) are not yet (0.326).
+# (docs/basicity.md). The basicity issue's goals are overall 0.5, anilines 0.3, pyridines 0.3;
+# all are met (0.421, 0.292, 0.295), and the guards hold the last two at their goals.
 @pytest.mark.parametrize(
     "classes,limit",
     [
-        (None, 0.445),
+        (None, 0.435),
         (("aniline_primary",), 0.25),
-        (("aniline_primary", "aniline_secondary", "aniline_tertiary"), 0.32),
-        (("azine_polyaza",), 0.60),
+        (("aniline_primary", "aniline_secondary", "aniline_tertiary"), 0.30),
+        (("azine_polyaza",), 0.59),
         (("other_heteroaromatic",), 0.50),
         (("aliphatic_primary", "aliphatic_secondary", "aliphatic_tertiary"), 0.40),
-        (("pyridine",), 0.345),
-        (("imidazole",), 0.45),
+        (("pyridine",), 0.30),
+        (("imidazole",), 0.44),
         (("amidine_guanidine",), 0.47),
     ],
 )
