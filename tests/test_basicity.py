@@ -107,6 +107,16 @@ def test_reference_table_agrees_with_the_iupac_digitization(pka_dataset_dir):
     assert bad == []
 
 
+def _ring_n_model(smiles):
+    """The class model's value for the first aromatic N of a compound, without the reference
+    table (for compounds that are themselves reference values)."""
+    from chemcheck.basicity import model
+
+    mol = Chem.MolFromSmiles(smiles)
+    n = next(a.GetIdx() for a in mol.GetAtoms() if a.GetIsAromatic() and a.GetAtomicNum() == 7)
+    return model.azine(mol, n)[0]
+
+
 def _accuracy(path, cls=None):
     errs = []
     with path.open() as fh:
@@ -865,16 +875,9 @@ def test_a_peri_amino_group_holds_the_ring_n_in_a_hydrogen_bond():
     # 8-aminoquinoline 3.99 lies about 0.9 below quinoline 4.90 (Albert, from memory): more than
     # the crowding of a peri methyl group, as its N-H binds the ring N's lone pair in the base.
     # 8-aminoquinoline is also in the reference table, so the class model is asked directly.
-    from chemcheck.basicity import model
-
-    def ring_n(smiles):
-        mol = Chem.MolFromSmiles(smiles)
-        n = next(a.GetIdx() for a in mol.GetAtoms() if a.GetIsAromatic() and a.GetAtomicNum() == 7)
-        return model.azine(mol, n)[0]
-
-    quinoline = ring_n("c1ccc2ncccc2c1")
-    assert abs(ring_n("Nc1cccc2cccnc12") - quinoline - (3.99 - 4.90)) <= 0.3
-    assert ring_n("Nc1cccc2cccnc12") < ring_n("Cc1cccc2cccnc12")
+    quinoline = _ring_n_model("c1ccc2ncccc2c1")
+    assert abs(_ring_n_model("Nc1cccc2cccnc12") - quinoline - (3.99 - 4.90)) <= 0.3
+    assert _ring_n_model("Nc1cccc2cccnc12") < _ring_n_model("Cc1cccc2cccnc12")
 
 
 def test_a_donor_para_to_the_ring_n_r_of_a_cyclic_amidine_conjugates_with_the_cation():
@@ -955,16 +958,9 @@ def test_a_second_withdrawing_group_beside_the_ring_n_adds_less():
     # 2,6-dichloropyridine -2.86 against 2-chloropyridine 0.72 and pyridine 5.25 (CRC, from
     # memory): the second Cl costs 3.6, the first 4.5. Both are in the reference table, so the
     # class model is asked directly.
-    from chemcheck.basicity import model
-
-    def ring_n(smiles):
-        mol = Chem.MolFromSmiles(smiles)
-        n = next(a.GetIdx() for a in mol.GetAtoms() if a.GetIsAromatic() and a.GetAtomicNum() == 7)
-        return model.azine(mol, n)[0]
-
-    one, two = ring_n("Clc1ccccn1"), ring_n("Clc1cccc(Cl)n1")
+    one, two = _ring_n_model("Clc1ccccn1"), _ring_n_model("Clc1cccc(Cl)n1")
     assert abs(two - (-2.86)) <= 0.4
-    assert one - two < ring_n("c1ccncc1") - one
+    assert one - two < _ring_n_model("c1ccncc1") - one
 
 
 def test_a_hydroxyethyl_group_beside_the_ring_n_holds_its_lone_pair():

@@ -620,22 +620,29 @@ def _hammett_sum(
     return ortho, sigma
 
 
-def _beta_bond(mol: Chem.Mol, ring: list[int], a: int, b: int) -> bool:
-    """Whether ring atoms ``a`` and ``b`` form the bond opposite a benzo fusion (N2-C3 of an
-    isoquinoline, the beta-beta bond of a naphthalene), whose double-bond character is the
-    lowest of the ring (bond orders about 1.60 against 1.72 for an alpha-beta bond; C. A.
-    Coulson's Hueckel orders of naphthalene): a donor there conjugates with the site N through
-    it only weakly."""
+def _benzo_fusion_atoms(mol: Chem.Mol, ring: list[int]) -> set[int]:
+    """The atoms ``ring`` shares with fused benzo (aromatic carbocyclic) rings."""
     ring_set = set(ring)
-    fusion = set()
+    fusion: set[int] = set()
     for other in mol.GetRingInfo().AtomRings():
         shared = ring_set & set(other)
         if len(shared) == 2 and all(
             mol.GetAtomWithIdx(i).GetAtomicNum() == 6 and mol.GetAtomWithIdx(i).GetIsAromatic() for i in other
         ):
             fusion |= shared
+    return fusion
+
+
+def _beta_bond(mol: Chem.Mol, ring: list[int], a: int, b: int) -> bool:
+    """Whether ring atoms ``a`` and ``b`` form the bond opposite a benzo fusion (N2-C3 of an
+    isoquinoline, the beta-beta bond of a naphthalene), whose double-bond character is the
+    lowest of the ring (bond orders about 1.60 against 1.72 for an alpha-beta bond; C. A.
+    Coulson's Hueckel orders of naphthalene): a donor there conjugates with the site N through
+    it only weakly."""
+    fusion = _benzo_fusion_atoms(mol, ring)
     if len(fusion) != 2:
         return False
+    ring_set = set(ring)
     alpha = {n.GetIdx() for f in fusion for n in mol.GetAtomWithIdx(f).GetNeighbors() if n.GetIdx() in ring_set}
     return not ({a, b} & (alpha | fusion))
 
@@ -643,14 +650,7 @@ def _beta_bond(mol: Chem.Mol, ring: list[int], a: int, b: int) -> bool:
 def _next_to_benzo_fusion(mol: Chem.Mol, ring: list[int], idx: int) -> bool:
     """Whether ring atom ``idx`` is bonded to an atom the ring shares with a fused benzo ring
     (C1 of an isoquinoline)."""
-    ring_set = set(ring)
-    for other in mol.GetRingInfo().AtomRings():
-        shared = ring_set & set(other)
-        if len(shared) == 2 and all(
-            mol.GetAtomWithIdx(i).GetAtomicNum() == 6 and mol.GetAtomWithIdx(i).GetIsAromatic() for i in other
-        ) and any(mol.GetBondBetweenAtoms(idx, f) is not None for f in shared):
-            return True
-    return False
+    return any(mol.GetBondBetweenAtoms(idx, f) is not None for f in _benzo_fusion_atoms(mol, ring))
 
 
 def _ring_neighbours(mol: Chem.Mol, ring: list[int], idx: int) -> list[int]:
@@ -710,13 +710,7 @@ def _para_is_fusion(mol: Chem.Mol, ring: list[int], idx: int) -> bool:
     """Whether the ring atom para to ``idx`` is shared with a fused benzo ring (C8a seen from
     C3 of a quinoline)."""
     pos = _ordered_positions(ring, idx)
-    para = next(i for i in ring if pos[i] == 3)
-    ring_set = set(ring)
-    return any(
-        para in other and set(other) != ring_set
-        and all(mol.GetAtomWithIdx(i).GetAtomicNum() == 6 and mol.GetAtomWithIdx(i).GetIsAromatic() for i in other)
-        for other in mol.GetRingInfo().AtomRings()
-    )
+    return next(i for i in ring if pos[i] == 3) in _benzo_fusion_atoms(mol, ring)
 
 
 def _chain_sigma_star(mol: Chem.Mol, x: Chem.Atom, parent: Chem.Atom, ring: list[int]) -> float:
