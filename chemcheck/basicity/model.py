@@ -1143,73 +1143,7 @@ def azine(mol: Chem.Mol, n_idx: int) -> tuple[float, str]:
     """Pyridine-type nitrogen in an aromatic ring: pyridines, azines, azoles."""
     ring6 = _ring_of(mol, n_idx, 6)
     if ring6 is not None:
-        pka = K.PYRIDINE["pka0"]
-        donors: list = []
-        ortho, sigma = _hammett_sum(
-            mol, ring6, n_idx, K.ORTHO_PYRIDINE, default_ortho=-1.0, ring_hetero=0.5, para_minus=None,
-            donors=donors, beside_donor=True,
-        )
-        sigma += _fused_ring_sigma(mol, ring6, n_idx)
-        pka += _donor_cross(mol, ring6, n_idx, donors, K.PYRIDINE["rho"])
-        # an amino group ortho or para to the N carries much of the cation's charge, and the
-        # crowded N-H matters less (4-aminoquinaldines, 2,4-diaminoquinazolines)
-        strong_donor = any(
-            (kind == "ortho" and term > 0) or (kind == "sigma" and term < -0.3) for _i, kind, term in donors
-        )
-        # in an amino-diazine the other substituents act with a reduced rho, and a third amino
-        # group on a pyrimidine adds less (constants.DIAZINE_RHO_FACTOR, THIRD_AMINO)
-        subs = [(d, key) for d, key, _i in _ring_substituents_at(mol, ring6, n_idx)]
-        aza = [d for d, key in subs if key == "aza" and d > 1]
-        if strong_donor and aza:
-            fixed = sum(K.AZA_SIGMA["meta" if d == 2 else "para"] for d in aza)
-            fixed += sum(term for _i, kind, term in donors if kind == "sigma")
-            sigma = fixed + K.DIAZINE_RHO_FACTOR * (sigma - fixed)
-        amino = sum(1 for _d, key in subs if key in ("NH2", "NHR", "NR2", "NHAr"))
-        if len(aza) == 1 and amino > 2:
-            pka -= K.THIRD_AMINO * (amino - 2)
-        pka += K.ORTHO_OH_HBOND * sum(1 for i in _ring_neighbours(mol, ring6, n_idx) if _chain_oh(mol, ring6, i))
-        pka += K.LOCKED_NHR * sum(1 for i in _ring_neighbours(mol, ring6, n_idx) if _locked_nhr(mol, ring6, i, n_idx))
-        ortho_ewg = sorted(
-            K.ORTHO_PYRIDINE[key] for d, key in subs if d == 1 and K.ORTHO_PYRIDINE.get(key, 0.0) < 0 and key != "fused"
-        )
-        if len(ortho_ewg) >= 2 and not aza:
-            # the second electron-withdrawing group beside the N adds less (constants.SECOND_ORTHO_EWG)
-            pka -= (1 - K.SECOND_ORTHO_EWG) * ortho_ewg[-1]
-        if strong_donor and not aza:
-            # an alkoxy group conjugated with the N next to a stronger amino donor loses part of
-            # its resonance to it (constants.ALKOXY_DONOR_LOSS)
-            keys_at = {i: key for _d, key, i in _ring_substituents_at(mol, ring6, n_idx)}
-            amino_inc = max(
-                (term if kind == "ortho" else -K.PYRIDINE["rho"] * term
-                 for i, kind, term in donors if keys_at.get(i) in ("NH2", "NHR", "NR2")),
-                default=0.0,
-            )
-            n_alkoxy = sum(1 for d, key in subs if key == "OMe" and d in (1, 3))
-            pka -= K.ALKOXY_DONOR_LOSS * max(amino_inc, 0.0) * n_alkoxy
-            # alkyl groups beside the N stabilise the amidinium-like cation less
-            alkyl_ortho = sum(
-                K.ORTHO_PYRIDINE[key] for d, key in subs if d == 1 and key in ("CH3", "alkyl", "tBu")
-            )
-            pka -= (1 - K.DONOR_ALKYL_ORTHO_SHARE) * alkyl_ortho
-        if not strong_donor:
-            pka += _peri(mol, ring6, n_idx)
-        elif any(kind == "ortho" and term > 0 for _i, kind, term in donors) and not any(
-            g.GetIsAromatic() for g in _peri_groups(mol, ring6, n_idx)
-        ):
-            # with an amino group beside the N, a fused ring beside it on the other side adds to
-            # the basicity (2-aminoquinoline, 2-aminoquinazoline): constants.DONOR_FUSED_ORTHO;
-            # not when a further ring crowds the N from the peri position (benzo[h]quinoline)
-            fused_beside = sum(1 for d, key in subs if d == 1 and key == "fused")
-            pka += K.DONOR_FUSED_ORTHO * fused_beside
-            if not fused_beside:
-                # the same amidine-like unit with the donor on the carbon next to the fusion
-                # (1-aminoisoquinoline): the donor-N bond is the ring's alpha-beta bond of high
-                # double-bond character (constants.DONOR_ALPHA_ORTHO)
-                pka += K.DONOR_ALPHA_ORTHO * sum(
-                    1 for i, kind, term in donors
-                    if kind == "ortho" and term > 0 and _next_to_benzo_fusion(mol, ring6, i)
-                )
-        return pka + ortho - K.PYRIDINE["rho"] * sigma, f"Hammett equation, pyridine-type N (sum sigma {sigma:+.2f})"
+        return _six_ring_n(mol, n_idx, ring6)
     ring5 = _ring_of(mol, n_idx, 5)
     if ring5 is None:
         return 2.0, "class value, aromatic N"
@@ -1285,6 +1219,88 @@ def azine(mol: Chem.Mol, n_idx: int) -> tuple[float, str]:
             fused *= K.AZOLE_AMIDINE_DONOR_SHARE
         pka += fused
     return pka - K.AZOLE_RHO * sigma, f"ring class ({label}) with substituent terms"
+
+
+def _six_ring_n(mol: Chem.Mol, n_idx: int, ring6: list[int]) -> tuple[float, str]:
+    """A pyridine-type N in a six-membered aromatic ring: Hammett sum of the ring's
+    substituents and aza atoms with pyridinium's rho, the fused rings, and the corrections to
+    additivity that constants.py documents one by one."""
+    pka = K.PYRIDINE["pka0"]
+    donors: list = []
+    ortho, sigma = _hammett_sum(
+        mol, ring6, n_idx, K.ORTHO_PYRIDINE, default_ortho=-1.0, ring_hetero=0.5, para_minus=None,
+        donors=donors, beside_donor=True,
+    )
+    sigma += _fused_ring_sigma(mol, ring6, n_idx)
+    pka += _donor_cross(mol, ring6, n_idx, donors, K.PYRIDINE["rho"])
+    # an amino group ortho or para to the N carries much of the cation's charge, and the
+    # crowded N-H matters less (4-aminoquinaldines, 2,4-diaminoquinazolines)
+    strong_donor = any(
+        (kind == "ortho" and term > 0) or (kind == "sigma" and term < -0.3) for _i, kind, term in donors
+    )
+    # in an amino-diazine the other substituents act with a reduced rho, and a third amino
+    # group on a pyrimidine adds less (constants.DIAZINE_RHO_FACTOR, THIRD_AMINO)
+    subs_at = list(_ring_substituents_at(mol, ring6, n_idx))
+    subs = [(d, key) for d, key, _i in subs_at]
+    aza = [d for d, key in subs if key == "aza" and d > 1]
+    if strong_donor and aza:
+        fixed = sum(K.AZA_SIGMA["meta" if d == 2 else "para"] for d in aza)
+        fixed += sum(term for _i, kind, term in donors if kind == "sigma")
+        sigma = fixed + K.DIAZINE_RHO_FACTOR * (sigma - fixed)
+    amino = sum(1 for _d, key in subs if key in ("NH2", "NHR", "NR2", "NHAr"))
+    if len(aza) == 1 and amino > 2:
+        pka -= K.THIRD_AMINO * (amino - 2)
+    # hydrogen bonds from the groups beside the N (constants.ORTHO_OH_HBOND, LOCKED_NHR)
+    pka += K.ORTHO_OH_HBOND * sum(1 for i in _ring_neighbours(mol, ring6, n_idx) if _chain_oh(mol, ring6, i))
+    pka += K.LOCKED_NHR * sum(1 for i in _ring_neighbours(mol, ring6, n_idx) if _locked_nhr(mol, ring6, i, n_idx))
+    if not aza:
+        pka += _pyridine_non_additivity(subs_at, donors, strong_donor)
+    if not strong_donor:
+        pka += _peri(mol, ring6, n_idx)
+    elif any(kind == "ortho" and term > 0 for _i, kind, term in donors) and not any(
+        g.GetIsAromatic() for g in _peri_groups(mol, ring6, n_idx)
+    ):
+        # with an amino group beside the N, a fused ring beside it on the other side adds to
+        # the basicity (2-aminoquinoline, 2-aminoquinazoline): constants.DONOR_FUSED_ORTHO;
+        # not when a further ring crowds the N from the peri position (benzo[h]quinoline)
+        fused_beside = sum(1 for d, key in subs if d == 1 and key == "fused")
+        pka += K.DONOR_FUSED_ORTHO * fused_beside
+        if not fused_beside:
+            # the same amidine-like unit with the donor on the carbon next to the fusion
+            # (1-aminoisoquinoline): the donor-N bond is the ring's alpha-beta bond of high
+            # double-bond character (constants.DONOR_ALPHA_ORTHO)
+            pka += K.DONOR_ALPHA_ORTHO * sum(
+                1 for i, kind, term in donors
+                if kind == "ortho" and term > 0 and _next_to_benzo_fusion(mol, ring6, i)
+            )
+    return pka + ortho - K.PYRIDINE["rho"] * sigma, f"Hammett equation, pyridine-type N (sum sigma {sigma:+.2f})"
+
+
+def _pyridine_non_additivity(subs_at: list, donors: list, strong_donor: bool) -> float:
+    """Corrections to the additive sum on a pyridine ring with no second ring N: a second
+    electron-withdrawing group beside the N adds less (constants.SECOND_ORTHO_EWG); with an
+    amino group ortho or para to the N, which takes much of the cation's charge, an alkoxy
+    group conjugated with the N gives up part of its resonance (ALKOXY_DONOR_LOSS) and an alkyl
+    group beside the N adds less (DONOR_ALKYL_ORTHO_SHARE)."""
+    out = 0.0
+    ortho_ewg = sorted(
+        K.ORTHO_PYRIDINE[key] for d, key, _i in subs_at if d == 1 and K.ORTHO_PYRIDINE.get(key, 0.0) < 0 and key != "fused"
+    )
+    if len(ortho_ewg) >= 2:
+        out -= (1 - K.SECOND_ORTHO_EWG) * ortho_ewg[-1]
+    if not strong_donor:
+        return out
+    keys_at = {i: key for _d, key, i in subs_at}
+    amino_inc = max(
+        (term if kind == "ortho" else -K.PYRIDINE["rho"] * term
+         for i, kind, term in donors if keys_at.get(i) in ("NH2", "NHR", "NR2")),
+        default=0.0,
+    )
+    n_alkoxy = sum(1 for d, key, _i in subs_at if key == "OMe" and d in (1, 3))
+    out -= K.ALKOXY_DONOR_LOSS * max(amino_inc, 0.0) * n_alkoxy
+    alkyl_ortho = sum(K.ORTHO_PYRIDINE[key] for d, key, _i in subs_at if d == 1 and key in ("CH3", "alkyl", "tBu"))
+    out -= (1 - K.DONOR_ALKYL_ORTHO_SHARE) * alkyl_ortho
+    return out
 
 
 def _across_pyrrole_n(mol: Chem.Mol, ring5: list[int], n_idx: int, idx: int) -> bool:
