@@ -227,6 +227,12 @@ FUSED_RING_FACTOR = 0.5
 # methylquinolines lie within 0.2 of quinoline, where the full factor put a 7-methyl group
 # 0.5 above it). Our estimate, checked as one number against the development set.
 FUSED_ALKYL_SHARE = 0.5
+# A donor on the fused ring para to the fusion atom that carries the N (C6 of a quinoline, para
+# to C8a) is not conjugated with the N by the path count, but gives to C8a, which shares the
+# cation's charge: it acts with sigma_m plus this share of (sigma_p - sigma_m). 6-aminoquinoline
+# 5.63 against quinoline 4.90 (Albert, from memory), where sigma_m alone gives 5.37. Not for an
+# acridine N, whose two outer rings share the charge. Our estimate.
+FUSED_PARA_DONOR_SHARE = 0.3
 # A donor meta to the ring N whose para ring atom is the fusion atom of a benzo ring (C3 of a
 # quinoline, its para atom C8a) sends its resonance into the benzo ring rather than towards the
 # N: its sigma moves this share of the way from sigma_m to its field constant F [HLT, from

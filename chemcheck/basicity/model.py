@@ -964,11 +964,30 @@ def _fused_ring_sigma(mol: Chem.Mol, ring: list[int], site: int) -> float:
             # conjugated (odd path) positions act with sigma_p, unless the shortest path runs
             # along the fusion bond: resonance does not cross it
             conjugated = d % 2 == 1 and not _crosses_fusion(mol, path)
-            term = (K.FUSED_RING_FACTOR ** lvl) * (sp if conjugated else sm)
+            sg = sp if conjugated else sm
+            if not conjugated and lvl == 1 and sp < sm and _para_to_n_fusion(mol, a_idx, site):
+                sg = sm + K.FUSED_PARA_DONOR_SHARE * (sp - sm)
+            term = (K.FUSED_RING_FACTOR ** lvl) * sg
             if key in ("CH3", "alkyl", "tBu"):
                 term *= K.FUSED_ALKYL_SHARE
             total += term
     return total
+
+
+def _para_to_n_fusion(mol: Chem.Mol, a_idx: int, site: int) -> bool:
+    """Whether, in its own ring, atom ``a_idx`` is para to a fusion atom bonded to the site N
+    (C6 of a quinoline, para to C8a)."""
+    info = mol.GetRingInfo()
+    fusions = [f for f in mol.GetAtomWithIdx(site).GetNeighbors() if info.NumAtomRings(f.GetIdx()) >= 2]
+    if len(fusions) != 1:
+        return False  # an acridine N between two fusion atoms: its outer rings share the charge
+    for f in fusions:
+        for r in info.AtomRings():
+            if a_idx in r and f.GetIdx() in r and site not in r and len(r) == 6:
+                pos = _ordered_positions(list(r), f.GetIdx())
+                if pos[a_idx] == 3:
+                    return True
+    return False
 
 
 def _crosses_fusion(mol: Chem.Mol, path) -> bool:
