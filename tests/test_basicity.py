@@ -130,14 +130,14 @@ def _accuracy(path, cls=None):
 
 # Regression guards just above the accuracy measured when the methods landed
 # (docs/basicity.md). The basicity issue's goals are overall 0.5, anilines 0.3, pyridines 0.3;
-# all are met (0.421, 0.292, 0.295), and the guards hold the last two at their goals.
+# all are met (0.419, 0.291, 0.294), and the guards hold the last two at their goals.
 @pytest.mark.parametrize(
     "classes,limit",
     [
-        (None, 0.435),
+        (None, 0.43),
         (("aniline_primary",), 0.25),
         (("aniline_primary", "aniline_secondary", "aniline_tertiary"), 0.30),
-        (("azine_polyaza",), 0.59),
+        (("azine_polyaza",), 0.585),
         (("other_heteroaromatic",), 0.50),
         (("aliphatic_primary", "aliphatic_secondary", "aliphatic_tertiary"), 0.40),
         (("pyridine",), 0.30),
