@@ -158,24 +158,24 @@ def _ring_bonds_kept(ref: Chem.Mol, mol: Chem.Mol, match: tuple[int, ...]) -> bo
 
 
 def _groups_kept(ref: Chem.Mol, mol: Chem.Mol, match: tuple[int, ...]) -> bool:
-    """Each matched atom keeps its charge, and an aldehyde carbon of the reference is an
-    aldehyde carbon in the compound too: a
-    pyridinecarbaldehyde, whose measured value includes its hydrate, must not anchor a ketone or
-    an ester that the substructure match also finds."""
+    """The matched atoms are the same kind of group in the compound as in the reference: each
+    keeps its charge (an amino N is not the N of a nitro group), a substituent carbon on an
+    aromatic ring keeps its hybridisation (the methyl C of a picoline is not the carbonyl C of
+    an ester), and an aldehyde carbon stays an aldehyde (a pyridinecarbaldehyde's measured
+    value includes its hydrate)."""
     for a in ref.GetAtoms():
         target = mol.GetAtomWithIdx(match[a.GetIdx()])
         if target.GetFormalCharge() != a.GetFormalCharge():
-            return False  # an amino N of the reference is not the N of a nitro group
-        if (
-            not a.GetIsAromatic() and any(n.GetIsAromatic() for n in a.GetNeighbors())
-            and target.GetHybridization() != a.GetHybridization()
-        ):
-            return False  # the methyl C of a picoline is not the carbonyl C of an ester
-        if a.GetAtomicNum() != 6 or a.GetIsAromatic() or a.GetTotalNumHs() == 0:
+            return False
+        if a.GetIsAromatic():
             continue
-        if any(b.GetBondType() == Chem.BondType.DOUBLE and b.GetOtherAtom(a).GetAtomicNum() == 8 for b in a.GetBonds()):
-            if mol.GetAtomWithIdx(match[a.GetIdx()]).GetTotalNumHs() == 0:
-                return False
+        if any(n.GetIsAromatic() for n in a.GetNeighbors()) and target.GetHybridization() != a.GetHybridization():
+            return False
+        aldehyde = a.GetAtomicNum() == 6 and a.GetTotalNumHs() > 0 and any(
+            b.GetBondType() == Chem.BondType.DOUBLE and b.GetOtherAtom(a).GetAtomicNum() == 8 for b in a.GetBonds()
+        )
+        if aldehyde and target.GetTotalNumHs() == 0:
+            return False
     return True
 
 

@@ -246,9 +246,6 @@ FUSION_META_DONOR_SHARE = 0.5
 # 7.62 and 2-aminopyridine 1.6 above pyridine; 3-methylisoquinoline 5.64 (Albert, from memory).
 # Our estimate. Rings with a second ring N (quinazolines) are left out: their cations add water.
 BETA_BOND_RHO = 4.0
-FUSION_META_DONOR_FIELD: dict[str, float] = {
-    "NH2": 0.08, "NHR": 0.03, "NR2": 0.15, "OMe": 0.29, "CH3": 0.01, "alkyl": 0.0, "SR": 0.23,
-}
 
 # Steric inhibition of resonance in N,N-dialkylanilines with an ortho alkyl group: the ortho
 # increment per crowding alkyl group. From N,N-dimethyl-o-toluidine (5.86) against
@@ -394,6 +391,11 @@ FIELD: dict[str, float] = {
 # against 2-aminopyridine 6.86 (from memory). Diazines are left out: their amino-diazine
 # cations already take the reduced rho of DIAZINE_RHO_FACTOR. Our estimate.
 DONOR_META_FIELD: dict[str, float] = {"NH2": 0.08, "NHR": 0.03, "NR2": 0.15, "OMe": 0.29, "O-": -0.26}
+# the field constants of the donors that FUSION_META_DONOR_SHARE moves (the same table, with the
+# alkyl groups, F(CH3) 0.01 [HLT, from memory], and SR from FIELD)
+FUSION_META_DONOR_FIELD: dict[str, float] = {
+    **{k: v for k, v in DONOR_META_FIELD.items() if k != "O-"}, "CH3": 0.01, "alkyl": 0.0, "SR": FIELD["SR"],
+}
 DONOR_META_SHARE = 0.7
 # A pi-donor ortho or para to the site on a ring that carries a ring C=O two atoms away from it,
 # joined through a ring carbon (N-C=C-C=O, a vinylogous amide, as in 4-amino-6-pyrimidinones):

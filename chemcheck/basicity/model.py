@@ -561,6 +561,7 @@ def _hammett_sum(
     # the BETWEEN_AZA terms are for a ring N site; an amino group on a ring carbon is not one
     centre_is_aza = mol.GetAtomWithIdx(centre).GetAtomicNum() == 7
     second_aza = any(key == "aza" for _d, key, _i in subs)
+    benzo = _benzo_fusion_atoms(mol, ring) if centre_is_aza else set()
     # an alkoxy group beside the N is not such a donor: its pull on the N outweighs its
     # resonance (2-methoxypyridine 3.28 against 5.25, CRC), and a donor para to it keeps its
     # full sigma_m (5-amino-2-methoxypyridine)
@@ -596,7 +597,7 @@ def _hammett_sum(
             term = ortho_table.get(key, default_ortho if key != "H" else 0.0)
             if key in K.BETWEEN_AZA and centre_is_aza and _aza_beside(mol, ring, idx, centre):
                 term += K.BETWEEN_AZA[key]
-            if centre_is_aza and key in K.HAMMETT and not second_aza and _beta_bond(mol, ring, centre, idx):
+            if centre_is_aza and key in K.HAMMETT and not second_aza and _beta_bond(mol, ring, benzo, centre, idx):
                 sm, sp, _ = K.HAMMETT[key]
                 term += K.BETA_BOND_RHO * min(0.0, sp - sm)
             ortho += term
@@ -606,7 +607,7 @@ def _hammett_sum(
             sg = _sigma_for(key, d, para_minus)
             if d == 2 and conjugated_donor and key in K.DONOR_META_FIELD:
                 sg += K.DONOR_META_SHARE * (K.DONOR_META_FIELD[key] - sg)
-            elif d == 2 and centre_is_aza and key in K.FUSION_META_DONOR_FIELD and _para_is_fusion(mol, ring, idx):
+            elif d == 2 and centre_is_aza and key in K.FUSION_META_DONOR_FIELD and _para_of(ring, idx) in benzo:
                 sg += K.FUSION_META_DONOR_SHARE * (K.FUSION_META_DONOR_FIELD[key] - sg)
             if d == 2 and any(mol.GetBondBetweenAtoms(a, centre) for a in _aza_beside(mol, ring, idx, centre)):
                 sg += K.ALPHA_AZA_RESONANCE * (_sigma_for(key, 3, para_minus) - sg)
@@ -633,13 +634,12 @@ def _benzo_fusion_atoms(mol: Chem.Mol, ring: list[int]) -> set[int]:
     return fusion
 
 
-def _beta_bond(mol: Chem.Mol, ring: list[int], a: int, b: int) -> bool:
+def _beta_bond(mol: Chem.Mol, ring: list[int], fusion: set[int], a: int, b: int) -> bool:
     """Whether ring atoms ``a`` and ``b`` form the bond opposite a benzo fusion (N2-C3 of an
     isoquinoline, the beta-beta bond of a naphthalene), whose double-bond character is the
     lowest of the ring (bond orders about 1.60 against 1.72 for an alpha-beta bond; C. A.
     Coulson's Hueckel orders of naphthalene): a donor there conjugates with the site N through
-    it only weakly."""
-    fusion = _benzo_fusion_atoms(mol, ring)
+    it only weakly. ``fusion``: the ring's benzo-fusion atoms (``_benzo_fusion_atoms``)."""
     if len(fusion) != 2:
         return False
     ring_set = set(ring)
@@ -654,7 +654,8 @@ def _next_to_benzo_fusion(mol: Chem.Mol, ring: list[int], idx: int) -> bool:
 
 
 def _ring_neighbours(mol: Chem.Mol, ring: list[int], idx: int) -> list[int]:
-    return [n.GetIdx() for n in mol.GetAtomWithIdx(idx).GetNeighbors() if n.GetIdx() in set(ring)]
+    ring_set = set(ring)
+    return [n.GetIdx() for n in mol.GetAtomWithIdx(idx).GetNeighbors() if n.GetIdx() in ring_set]
 
 
 def _chain_oh(mol: Chem.Mol, ring: list[int], idx: int) -> bool:
@@ -689,11 +690,10 @@ def _locked_nhr(mol: Chem.Mol, ring: list[int], idx: int, site: int) -> bool:
     cation. A carboxamide there does not hold it as firmly (the pyrazinecarboxamides)."""
     ring_set = set(ring)
     atom = mol.GetAtomWithIdx(idx)
-    amino = [
-        x for x in atom.GetNeighbors()
-        if x.GetIdx() not in ring_set and classify_substituent(mol, atom, x, ring_set) == "NHR"
-    ]
-    if not amino:
+    if not any(
+        x.GetIdx() not in ring_set and classify_substituent(mol, atom, x, ring_set) == "NHR"
+        for x in atom.GetNeighbors()
+    ):
         return False
     for nb in atom.GetNeighbors():
         if nb.GetIdx() not in ring_set or nb.GetIdx() == site:
@@ -706,11 +706,10 @@ def _locked_nhr(mol: Chem.Mol, ring: list[int], idx: int, site: int) -> bool:
     return False
 
 
-def _para_is_fusion(mol: Chem.Mol, ring: list[int], idx: int) -> bool:
-    """Whether the ring atom para to ``idx`` is shared with a fused benzo ring (C8a seen from
-    C3 of a quinoline)."""
+def _para_of(ring: list[int], idx: int) -> int:
+    """The ring atom para to ``idx`` in a six-membered ring."""
     pos = _ordered_positions(ring, idx)
-    return next(i for i in ring if pos[i] == 3) in _benzo_fusion_atoms(mol, ring)
+    return next(i for i in ring if pos[i] == 3)
 
 
 def _chain_sigma_star(mol: Chem.Mol, x: Chem.Atom, parent: Chem.Atom, ring: list[int]) -> float:
@@ -981,13 +980,11 @@ def _para_to_n_fusion(mol: Chem.Mol, a_idx: int, site: int) -> bool:
     fusions = [f for f in mol.GetAtomWithIdx(site).GetNeighbors() if info.NumAtomRings(f.GetIdx()) >= 2]
     if len(fusions) != 1:
         return False  # an acridine N between two fusion atoms: its outer rings share the charge
-    for f in fusions:
-        for r in info.AtomRings():
-            if a_idx in r and f.GetIdx() in r and site not in r and len(r) == 6:
-                pos = _ordered_positions(list(r), f.GetIdx())
-                if pos[a_idx] == 3:
-                    return True
-    return False
+    f = fusions[0].GetIdx()
+    return any(
+        a_idx in r and f in r and site not in r and len(r) == 6 and _para_of(list(r), f) == a_idx
+        for r in info.AtomRings()
+    )
 
 
 def _crosses_fusion(mol: Chem.Mol, path) -> bool:
@@ -1270,8 +1267,8 @@ def _six_ring_n(mol: Chem.Mol, n_idx: int, ring6: list[int]) -> tuple[float, str
     if len(aza) == 1 and amino > 2:
         pka -= K.THIRD_AMINO * (amino - 2)
     # hydrogen bonds from the groups beside the N (constants.ORTHO_OH_HBOND, LOCKED_NHR)
-    pka += K.ORTHO_OH_HBOND * sum(1 for i in _ring_neighbours(mol, ring6, n_idx) if _chain_oh(mol, ring6, i))
-    pka += K.LOCKED_NHR * sum(1 for i in _ring_neighbours(mol, ring6, n_idx) if _locked_nhr(mol, ring6, i, n_idx))
+    for i in _ring_neighbours(mol, ring6, n_idx):
+        pka += K.ORTHO_OH_HBOND * _chain_oh(mol, ring6, i) + K.LOCKED_NHR * _locked_nhr(mol, ring6, i, n_idx)
     if not aza:
         pka += _pyridine_non_additivity(subs_at, donors, strong_donor)
     if not strong_donor:
