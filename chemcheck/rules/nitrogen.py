@@ -147,10 +147,18 @@ def lewis_acid_quenched_by_amine(ctx: Context):
                 "reaction, then hydrolyse the amide."
             )
         else:
+            # name the nitrogen: a substrate with a second, N-H amine (2-aminopyridine) would
+            # otherwise read as if it had no N-H at all
+            other_nh = any(
+                s.atom_index != best.atom_index and comp.mol.GetAtomWithIdx(s.atom_index).GetTotalNumHs() > 0
+                for s in sites
+            )
             fix = (
-                f"The nitrogen of {comp.label} carries no N–H, so it cannot be protected as an amide: run the "
-                "Lewis-acid step before the amine is made, or use a reaction that needs no Lewis acid (for a "
-                "formyl group on an electron-rich aniline, the Vilsmeier–Haack reaction)."
+                f"The {_word(best.kind)} nitrogen of {comp.label} carries no N–H, so it cannot be protected as an "
+                "amide"
+                + (" (protecting its N–H amine would leave this nitrogen free)" if other_nh else "")
+                + ": run the Lewis-acid step before this nitrogen is introduced, or use a reaction that needs no "
+                "Lewis acid (for a formyl group on an electron-rich aniline, the Vilsmeier–Haack reaction)."
             )
         need = len(sites) + _lewis_basic_carbonyls(ctx, comp) + (1 if acylation else 0)
         fix += f" Count at least {need} equiv of Lewis acid for this substrate ({len(sites)} basic N"
