@@ -4,7 +4,9 @@ A reaction is written ``reactants>agents>products`` (reaction SMILES); each side
 fragments separated by ``.``. A *component* is what the chemist weighs: one molecule, or a salt
 made of several fragments. Fragments are joined into one component when
 
-* adjacent fragments carry charges that cancel (``[Na+].[O-]C(C)=O``), or
+* ions on the same side make a salt whose charges cancel (``[Na+].[O-]C(C)=O``); written
+  apart, as patent records and drawing programs sort them, they are paired by the salts the
+  name table knows and by how close they are written; a neutral molecule is never merged, or
 * a CXSMILES fragment group says so (``... |f:0.1|``; fragment indices count every fragment in
   the order they appear in the text, reactants, then agents, then products), or
 * the caller names them together (``join=["Cl.NCc1ccccc1"]``, as the keys of ``amounts`` do).
@@ -17,6 +19,7 @@ from __future__ import annotations
 import re
 from collections.abc import Iterable, Sequence
 from dataclasses import dataclass, field, replace
+from functools import lru_cache
 
 from rdkit import Chem
 from rdkit.Chem import rdMolDescriptors
@@ -320,26 +323,139 @@ def _group(fragments: list[Fragment], cx: list[list[int]], join: Sequence[str]) 
             if [f.text for f in window] == parts and len({f.side for f in window}) == 1:
                 unite(range(i, i + n))
                 break
-    # adjacent charged fragments whose charges cancel
-    i = 0
-    while i < len(fragments):
-        charge = _charge(fragments[i].mol)
-        if charge != 0:
-            total = 0
-            for j in range(i, len(fragments)):
-                if fragments[j].side != fragments[i].side:
-                    break
-                total += _charge(fragments[j].mol)
-                if total == 0:
-                    if j > i:
-                        unite(range(i, j + 1))
-                    i = j
-                    break
-        i += 1
+    # ions: paired into salts within each side, never across a neutral molecule's component
+    units: dict[int, list[int]] = {}
+    for k, root in enumerate(owner):
+        units.setdefault(root, []).append(k)
+    for side in (0, 1, 2):
+        ions = [
+            idx for root, idx in sorted(units.items())
+            if fragments[root].side == side and sum(_charge(fragments[i].mol) for i in idx) != 0
+        ]
+        for block in _pair_ions(fragments, ions):
+            if len(block) > 1:
+                unite([i for unit in block for i in unit])
     groups: dict[int, list[int]] = {}
     for k, root in enumerate(owner):
         groups.setdefault(root, []).append(k)
     return [groups[r] for r in sorted(groups)]
+
+
+_MAX_IONS = 12  # ions on one side searched exhaustively; beyond, runs of adjacent ions only
+
+
+def _pair_ions(fragments: list[Fragment], ions: list[list[int]]) -> list[list[list[int]]]:
+    """Partition the ions of one side (each a list of fragment indices) into salts.
+
+    Patent records and drawing programs sort the fragments of a side, so the ions of one salt
+    are often not next to each other (``[H-].CN(C)C=O.[NH4+].[Na+].[Cl-]`` is NaH and NH4Cl
+    in DMF). Among the partitions into charge-neutral blocks, the best one makes the most
+    known reagents (by formula and charge: the name table's salts), then keeps ions written next
+    to each other together, then makes the smallest salts. An ion nothing can balance stands
+    alone. Neutral molecules are never part of a salt.
+    """
+    n = len(ions)
+    if n < 2:
+        return [[u] for u in ions]
+    charges = [sum(_charge(fragments[i].mol) for i in u) for u in ions]
+    if n > _MAX_IONS:
+        return _adjacent_blocks(ions, charges)
+    known = _known_salt_formulas()
+
+    def score(block: tuple[int, ...]) -> float:
+        if len(block) == 1:
+            return -10.0  # an ion left without its counter-ion
+        if _block_formula(fragments, [ions[b] for b in block]) in known:
+            value = 3.0 + len(block)  # a known salt, the more ions it accounts for the better
+        else:
+            value = -0.5 * (len(block) - 2)
+        # written next to each other: consecutive fragments, no neutral molecule between them
+        frag_idx = sorted(i for b in block for i in ions[b])
+        if frag_idx[-1] - frag_idx[0] + 1 == len(frag_idx):
+            value += 1.0
+        return value
+
+    from functools import lru_cache
+    from itertools import combinations
+
+    @lru_cache(maxsize=None)
+    def best(remaining: frozenset[int]) -> tuple[float, tuple[tuple[int, ...], ...]]:
+        if not remaining:
+            return 0.0, ()
+        first = min(remaining)
+        rest = sorted(remaining - {first})
+        options = [(first,)]
+        for size in range(1, min(len(rest), 6) + 1):
+            for combo in combinations(rest, size):
+                if charges[first] + sum(charges[c] for c in combo) == 0:
+                    options.append((first, *combo))
+        top: tuple[float, tuple[tuple[int, ...], ...]] | None = None
+        for block in options:
+            sub_score, sub_blocks = best(remaining - set(block))
+            total = score(block) + sub_score
+            if top is None or total > top[0] + 1e-9:
+                top = (total, (block, *sub_blocks))
+        assert top is not None
+        return top
+
+    _, blocks = best(frozenset(range(n)))
+    return [[ions[b] for b in block] for block in sorted(blocks)]
+
+
+def _adjacent_blocks(ions: list[list[int]], charges: list[int]) -> list[list[list[int]]]:
+    """Runs of ions written next to each other whose charges cancel (the fall-back for sides
+    with very many ions)."""
+    out: list[list[list[int]]] = []
+    i = 0
+    while i < len(ions):
+        total = 0
+        for j in range(i, len(ions)):
+            if j > i and ions[j][0] != ions[j - 1][-1] + 1:
+                break
+            total += charges[j]
+            if total == 0:
+                out.append(ions[i : j + 1])
+                i = j + 1
+                break
+        else:
+            out.append([ions[i]])
+            i += 1
+            continue
+        if total != 0:
+            out.append([ions[i]])
+            i += 1
+    return out
+
+
+def _block_formula(fragments: list[Fragment], units: list[list[int]]) -> str:
+    from collections import Counter
+
+    counts: Counter[str] = Counter()
+    for unit in units:
+        for i in unit:
+            mol = fragments[i].mol
+            if mol is None:
+                continue
+            for a in mol.GetAtoms():
+                counts[a.GetSymbol()] += 1
+                counts["H"] += a.GetTotalNumHs()
+    return "".join(f"{el}{counts[el]}" for el in sorted(counts) if counts[el])
+
+
+@lru_cache(maxsize=1)
+def _known_salt_formulas() -> frozenset[str]:
+    """Formulas of the salts in the name table (NaH, NH4Cl, LiAlH4, Cs2CO3, ...)."""
+    from .data.reagents import REAGENTS
+
+    out = set()
+    with _rdlog.captured():
+        for _names, smiles, _kind in REAGENTS:
+            mol = Chem.MolFromSmiles(smiles)
+            if mol is None or not any(a.GetFormalCharge() for a in mol.GetAtoms()):
+                continue
+            frag = Fragment(smiles, 0, 0, smiles, mol)
+            out.add(_block_formula([frag], [[0]]))
+    return frozenset(out)
 
 
 def _charge(mol: Chem.Mol | None) -> int:

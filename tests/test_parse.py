@@ -34,6 +34,47 @@ def test_fragments_whose_charges_cancel_form_one_component(text, expected):
     assert [c.text for c in parse_reaction(text).components] == expected
 
 
+# Ions written apart, as patent records sort them (the salts are common practice: NaH and NH4Cl
+# in DMF, LiAlH4 then NaOH work-up, NaBH4 with NH4Cl, HATU with NaHCO3, dppf-Fe with Cs2CO3).
+@pytest.mark.parametrize(
+    "text,expected",
+    [
+        (
+            "[Na+].CCCCN.CC(=O)Cl.[Cl-]>>CCCCNC(C)=O",
+            ["[Na+].[Cl-]", "CCCCN", "CC(=O)Cl", "CCCCNC(C)=O"],
+        ),
+        (
+            "CCCCN.CC(=O)Cl>[Na+].ClCCl.[OH-]>CCCCNC(C)=O",
+            ["CCCCN", "CC(=O)Cl", "[Na+].[OH-]", "ClCCl", "CCCCNC(C)=O"],
+        ),
+        ("CC>[H-].CN(C)C=O.[NH4+].[Na+].[Cl-]>CC", ["CC", "[H-].[Na+]", "CN(C)C=O", "[NH4+].[Cl-]", "CC"]),
+        (
+            "CC>[Al+3].[H-].[H-].[H-].[H-].[Li+].[Na+].[OH-]>CC",
+            ["CC", "[Al+3].[H-].[H-].[H-].[H-].[Li+]", "[Na+].[OH-]", "CC"],
+        ),
+        ("CC>[BH4-].[NH4+].[Na+].[Cl-]>CC", ["CC", "[BH4-].[Na+]", "[NH4+].[Cl-]", "CC"]),
+        (
+            "CC>O=C([O-])[O-].[Cs+].[Cs+].[Fe+2].c1ccc(P(c2ccccc2)[c-]2cccc2)cc1.c1ccc(P(c2ccccc2)[c-]2cccc2)cc1>CC",
+            [
+                "CC",
+                "O=C([O-])[O-].[Cs+].[Cs+]",
+                "[Fe+2].c1ccc(P(c2ccccc2)[c-]2cccc2)cc1.c1ccc(P(c2ccccc2)[c-]2cccc2)cc1",
+                "CC",
+            ],
+        ),
+    ],
+)
+def test_ions_written_apart_pair_into_salts_without_swallowing_molecules(text, expected):
+    r = parse_reaction(text)
+    assert [c.text for c in r.components] == expected
+    assert all(c.charge == 0 for c in r.components)
+
+
+def test_an_ion_with_no_counter_ion_on_its_side_stands_alone():
+    r = parse_reaction("C[Mg+].CC=O>[Br-]>CC(C)O")
+    assert [c.text for c in r.components] == ["C[Mg+]", "CC=O", "[Br-]", "CC(C)O"]
+
+
 def test_join_names_a_salt_weighed_as_one_solid():
     plain = parse_reaction("Cl.NCc1ccccc1.CC(=O)Cl>>")
     assert len(plain.components) == 3
