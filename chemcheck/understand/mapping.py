@@ -1,0 +1,314 @@
+"""Atom maps: which reactant (or agent) atom each product atom comes from.
+
+Three routes, tried in order:
+
+* ``given`` -- the chemist wrote atom map numbers (``[CH3:1]``); a product atom and a reactant
+  or agent atom of the same number are the same atom.
+* a computed map -- an algorithmic atom-to-atom mapper (EPAM Indigo's ``automap``, chosen by
+  measurement: see ``docs/mapping.md``), bounded by a timeout. The mapper first sees the
+  reactants only; when product atoms remain unmapped it is run again with the agents offered
+  as reactants, and an agent's atoms are accepted only for the product atoms the reactants
+  left open, so a solvent never displaces a reactant.
+* ``mcs`` -- the maximum-common-substructure route of :mod:`chemcheck.changes`, when the
+  mapper is missing, fails or runs out of time.
+
+When nothing maps, the result has ``source="none"``. Every computed result is cached per
+reaction text (and grouping of fragments into components).
+
+Indices are those of ``Component.mol`` as parsed by chemcheck. The mapper reads its own copy
+of each fragment, written as SMILES from chemcheck's molecule; the atom output order of that
+SMILES translates the mapper's atoms back to chemcheck's, and the elements are checked atom by
+atom before any pair is accepted.
+"""
+
+from __future__ import annotations
+
+import threading
+import time
+from dataclasses import dataclass, field
+
+from rdkit import Chem
+
+from .. import _rdlog
+from .._memo import Memo
+from ..reaction import Reaction
+
+__all__ = ["AtomMap", "map_reaction", "MAPPER"]
+
+Atom = tuple[int, int]  # (component index, atom index in Component.mol)
+
+#: the computed route's name, as written in ``AtomMap.source``
+MAPPER = "indigo"
+
+
+@dataclass(frozen=True)
+class AtomMap:
+    """Product atom -> origin atom, for one reaction.
+
+    ``source`` is ``"given"`` (maps written by the chemist), ``"indigo"`` (computed),
+    ``"mcs"`` (fallback) or ``"none"``. ``pairs`` holds ((product component, atom), (origin
+    component, atom)); origins may be reactants or agents (an agent that gives atoms is really
+    a reactant). ``coverage`` is the fraction of product heavy atoms mapped; ``note`` says why a
+    fallback was used. ``contributing`` names the components that give at least one heavy atom
+    to a product.
+    """
+
+    source: str
+    pairs: tuple[tuple[Atom, Atom], ...]
+    coverage: float
+    note: str | None = None
+    contributing: frozenset[int] = frozenset()
+    _forward: dict = field(default_factory=dict, init=False, repr=False, compare=False)
+    _backward: dict = field(default_factory=dict, init=False, repr=False, compare=False)
+
+    def __post_init__(self) -> None:
+        fwd = self._forward
+        back = self._backward
+        for p, o in self.pairs:
+            fwd[p] = o
+            back.setdefault(o, p)
+
+    def origin(self, product_comp: int, atom: int) -> Atom | None:
+        """The reactant/agent atom a product atom comes from, or None when unmapped."""
+        return self._forward.get((product_comp, atom))
+
+    def image(self, comp: int, atom: int) -> Atom | None:
+        """The product atom a reactant/agent atom becomes, or None when it leaves."""
+        return self._backward.get((comp, atom))
+
+    @property
+    def mapped(self) -> bool:
+        return bool(self.pairs)
+
+
+# --------------------------------------------------------------------------------------------
+# given maps
+
+
+def _given(rxn: Reaction) -> AtomMap:
+    origin_by_num: dict[int, Atom] = {}
+    # reactants first: a map number repeated on an agent (a reagent written twice) never
+    # displaces the reactant's atom
+    for comp in sorted(
+        (c for c in rxn.components if c.role != "product"), key=lambda c: c.role != "reactant"
+    ):
+        for a in comp.mol.GetAtoms():
+            n = a.GetAtomMapNum()
+            if n and n not in origin_by_num:
+                origin_by_num[n] = (comp.index, a.GetIdx())
+    pairs = []
+    for comp in rxn.products:
+        for a in comp.mol.GetAtoms():
+            o = origin_by_num.get(a.GetAtomMapNum()) if a.GetAtomMapNum() else None
+            if o is not None:
+                pairs.append(((comp.index, a.GetIdx()), o))
+    return _result(rxn, "given", pairs, None)
+
+
+def _result(rxn: Reaction, source: str, pairs, note: str | None) -> AtomMap:
+    comps = rxn.components
+    heavy_total = sum(1 for c in rxn.products for a in c.mol.GetAtoms() if a.GetAtomicNum() > 1)
+    pairs = tuple(sorted(set(pairs)))
+    heavy_pairs = [
+        (p, o) for p, o in pairs if comps[p[0]].mol.GetAtomWithIdx(p[1]).GetAtomicNum() > 1
+    ]
+    coverage = len(heavy_pairs) / heavy_total if heavy_total else 0.0
+    contributing = frozenset(
+        o[0] for _, o in heavy_pairs if comps[o[0]].mol.GetAtomWithIdx(o[1]).GetAtomicNum() > 1
+    )
+    return AtomMap(source, pairs, round(coverage, 6), note, contributing)
+
+
+def _none(rxn: Reaction, note: str | None) -> AtomMap:
+    return AtomMap("none", (), 0.0, note, frozenset())
+
+
+# --------------------------------------------------------------------------------------------
+# computed maps
+
+
+class MapperUnavailable(Exception):
+    """The mapping library is not installed or cannot start."""
+
+
+class MapperFailed(Exception):
+    """The mapper ran but gave no usable map (error, timeout, atoms out of step)."""
+
+
+_CACHE = Memo(1024)  # (text, grouping, timeout) -> AtomMap
+_local = threading.local()
+
+
+def clear_cache() -> None:
+    _CACHE.clear()
+
+
+def map_reaction(rxn: Reaction, *, timeout_s: float = 2.0) -> AtomMap:
+    """The atom map of ``rxn``: the chemist's maps when written, else a computed map (bounded
+    by ``timeout_s`` seconds), else the common-substructure fallback, else ``source="none"``.
+
+    Never raises on odd input: a reaction that cannot be mapped gets ``source="none"`` and a
+    ``note`` saying why.
+    """
+    if rxn.mapped:
+        return _given(rxn)
+    key = (rxn.text, tuple(c.fragments for c in rxn.components), round(float(timeout_s), 3))
+    hit = _CACHE.get(key)
+    if hit is not None:
+        return hit
+    out = _compute(rxn, timeout_s)
+    _CACHE.put(key, out)
+    return out
+
+
+def _compute(rxn: Reaction, timeout_s: float) -> AtomMap:
+    if not rxn.products:
+        return _none(rxn, "the reaction has no products to map")
+    if not any(a.GetAtomicNum() > 1 for c in rxn.products for a in c.mol.GetAtoms()):
+        return _none(rxn, "the products have no heavy atoms to map")
+    note = None
+    try:
+        pairs = _indigo_map(rxn, timeout_s)
+        amap = _result(rxn, MAPPER, pairs, None)
+        if amap.coverage > 0:
+            return amap
+        note = "the atom mapper mapped no product atom"
+    except MapperUnavailable as exc:
+        note = f"the atom mapper is not available ({exc})"
+    except MapperFailed as exc:
+        note = f"the atom mapper gave no map ({exc})"
+    try:
+        pairs = _mcs_pairs(rxn)
+    except Exception as exc:  # the fallback must never take the check down
+        return _none(rxn, f"{note}; the common-substructure route failed too ({type(exc).__name__})")
+    if pairs:
+        return _result(rxn, "mcs", pairs, f"{note}; atoms matched by common substructure instead")
+    return _none(rxn, f"{note}; no common substructure found either")
+
+
+def _mcs_pairs(rxn: Reaction) -> list[tuple[Atom, Atom]]:
+    from ..changes import atom_correspondence
+
+    corr = atom_correspondence(rxn)
+    return [(p, r) for r, p in corr.items()]
+
+
+# ---- the Indigo route
+
+
+def _indigo():
+    inst = getattr(_local, "indigo", None)
+    if inst is None:
+        try:
+            from indigo import Indigo  # noqa: PLC0415 - optional at import time
+        except Exception as exc:  # ImportError, or a broken native library
+            raise MapperUnavailable(f"{type(exc).__name__}") from None
+        try:
+            inst = Indigo()
+            inst.setOption("ignore-stereochemistry-errors", True)
+            inst.setOption("ignore-noncritical-query-features", True)
+        except Exception as exc:
+            raise MapperUnavailable(f"{type(exc).__name__}") from None
+        _local.indigo = inst
+    return inst
+
+
+def _pieces(comp) -> list[tuple[str, list[int]]]:
+    """Each fragment of a component as (SMILES, chemcheck atom index of each SMILES atom)."""
+    mol = comp.mol
+    out = []
+    with _rdlog.captured():
+        for frag in Chem.GetMolFrags(mol, asMols=False, sanitizeFrags=False):
+            try:
+                smi = Chem.MolFragmentToSmiles(
+                    mol, atomsToUse=list(frag), canonical=True, isomericSmiles=True, kekuleSmiles=False
+                )
+            except Exception as exc:
+                raise MapperFailed(f"component {comp.index + 1} cannot be written") from exc
+            order = [int(x) for x in mol.GetProp("_smilesAtomOutputOrder").strip("[]").split(",") if x.strip()]
+            if len(order) != len(frag):
+                raise MapperFailed(f"component {comp.index + 1} cannot be written")
+            out.append((smi, order))
+    return out
+
+
+def _indigo_map(rxn: Reaction, timeout_s: float) -> list[tuple[Atom, Atom]]:
+    deadline = time.monotonic() + max(float(timeout_s), 0.01)
+    reactants = [c for c in rxn.reactants if c.mol.GetNumAtoms()]
+    agents = [c for c in rxn.agents if c.mol.GetNumAtoms()]
+    products = [c for c in rxn.products if c.mol.GetNumAtoms()]
+    pieces = {c.index: _pieces(c) for c in (*reactants, *agents, *products)}
+    first = _indigo_run(reactants, products, pieces, deadline)
+    covered = {p for p, _ in first}
+    heavy = {
+        (c.index, a.GetIdx()) for c in products for a in c.mol.GetAtoms() if a.GetAtomicNum() > 1
+    }
+    if not agents or heavy <= covered or time.monotonic() >= deadline:
+        return first
+    try:
+        second = _indigo_run(reactants + agents, products, pieces, deadline)
+    except MapperFailed:
+        return first
+    # agents fill only the product atoms the reactants left open; an origin atom is used once
+    used = {o for _, o in first}
+    merged = list(first)
+    for p, o in second:
+        if p not in covered and o not in used:
+            merged.append((p, o))
+            used.add(o)
+    return merged
+
+
+def _indigo_run(origins, products, pieces, deadline: float) -> list[tuple[Atom, Atom]]:
+    left_ms = int((deadline - time.monotonic()) * 1000)
+    if left_ms <= 0:
+        raise MapperFailed("out of time")
+    ind = _indigo()
+    lhs = [(c.index, smi, order) for c in origins for smi, order in pieces[c.index]]
+    rhs = [(c.index, smi, order) for c in products for smi, order in pieces[c.index]]
+    text = ".".join(s for _, s, _ in lhs) + ">>" + ".".join(s for _, s, _ in rhs)
+    try:
+        ind.setOption("aam-timeout", max(left_ms, 1))
+        r = ind.loadReaction(text)
+        r.automap("discard")
+    except Exception as exc:  # IndigoException: timeout, unreadable structure
+        msg = str(exc).lower()
+        raise MapperFailed("out of time" if "timeout" in msg or "time" in msg else "mapper error") from None
+    try:
+        mols_l = list(r.iterateReactants())
+        mols_r = list(r.iterateProducts())
+        if len(mols_l) != len(lhs) or len(mols_r) != len(rhs):
+            raise MapperFailed("molecules out of step")
+        by_num: dict[int, Atom] = {}
+        for m, (ci, _smi, order) in zip(mols_l, lhs):
+            for a, idx in _aligned(m, order, ci, origins):
+                n = r.atomMappingNumber(a)
+                if n > 0:
+                    by_num.setdefault(n, (ci, idx))
+        pairs = []
+        for m, (ci, _smi, order) in zip(mols_r, rhs):
+            for a, idx in _aligned(m, order, ci, products):
+                n = r.atomMappingNumber(a)
+                if n > 0 and n in by_num:
+                    pairs.append(((ci, idx), by_num[n]))
+    except MapperFailed:
+        raise
+    except Exception as exc:
+        raise MapperFailed("mapper error") from exc
+    return pairs
+
+
+def _aligned(m, order: list[int], ci: int, comps):
+    """(Indigo atom, chemcheck atom index) in step, the elements checked one by one."""
+    atoms = list(m.iterateAtoms())
+    if len(atoms) != len(order):
+        raise MapperFailed("atoms out of step")
+    mol = next(c.mol for c in comps if c.index == ci)
+    out = []
+    for a, idx in zip(atoms, order):
+        mine = mol.GetAtomWithIdx(idx)
+        num = a.atomicNumber() if not a.isPseudoatom() and not a.isRSite() else 0
+        if num != mine.GetAtomicNum():
+            raise MapperFailed("atoms out of step")
+        out.append((a, idx))
+    return out
