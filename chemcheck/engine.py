@@ -138,6 +138,8 @@ def check(reaction: str | Reaction, amounts: dict[str, str] | None = None) -> Re
         balance=ctx.balance,
     )
     report.extra.update(_basicity_sections(ctx))
+    report.extra["understanding"] = ctx.understanding.to_dict()
+    report.roles = dict(ctx.understanding.roles)
     preds = getattr(ctx, "predictions", None) or []
     if preds:
         report.extra["predictions"] = [p.to_dict() for p in preds]

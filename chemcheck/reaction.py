@@ -76,6 +76,7 @@ class Component:
     span: tuple[int, int]
     kind: str | None = None  # perceived kind; filled in by perception for agents
     kind_hint: str | None = None
+    number: str = ""  # compound number: "1", "2", ... for reactants and products; "a", "b", ... for agents
 
     @property
     def inchikey(self) -> str:
@@ -565,6 +566,21 @@ def _build_component_uncached(index: int, frags: list[Fragment], text_full: str)
     )
 
 
+def _number(components: list[Component]) -> None:
+    """Compound numbers as a chemist writes them under a scheme: reactants then products 1, 2,
+    3, ...; agents a, b, c, ... (aa, ab, ... past z)."""
+    n = 0
+    letters = 0
+    for c in components:
+        if c.role == "agent":
+            q, r = divmod(letters, 26)
+            c.number = (chr(ord("a") + q - 1) if q else "") + chr(ord("a") + r)
+            letters += 1
+        else:
+            n += 1
+            c.number = str(n)
+
+
 def parse_reaction(text: str, *, join: Sequence[str] = ()) -> Reaction:
     """Read a reaction (or a plain list of molecules) into components with roles.
 
@@ -615,6 +631,7 @@ def parse_reaction(text: str, *, join: Sequence[str] = ()) -> Reaction:
     if len(groups) > MAX_COMPONENTS:
         raise LimitError(f"the reaction has {len(groups)} components; the limit is {MAX_COMPONENTS}")
     components = [_build_component(i, [fragments[k] for k in g], raw) for i, g in enumerate(groups)]
+    _number(components)
     mapped = any(_MAP_NUMBER.search(f.smiles) for f in fragments) and any(
         a.GetAtomMapNum() for c in components for a in c.mol.GetAtoms()
     )

@@ -30,6 +30,7 @@ class Report:
     balance: Any = None
     extra: dict[str, Any] = field(default_factory=dict)  # sections added by later stages
     stoichiometry: Any = None
+    roles: dict[int, str] = field(default_factory=dict)  # each component's role in this reaction
 
     @property
     def table(self):
@@ -58,7 +59,9 @@ class Report:
         p = self.perceptions.get(c.index)
         return {
             "index": c.index,
+            "number": c.number,
             "role": c.role,
+            "role_in_reaction": self.roles.get(c.index),
             "text": c.text,
             "smiles": c.smiles,
             "formula": c.formula,

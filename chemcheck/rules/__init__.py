@@ -66,6 +66,17 @@ class Context:
         return compute(self.reaction, self.amounts, b.coefficients if b.balanced else None)
 
     @cached_property
+    def understanding(self):
+        """What happens in the reaction: atom map, centre, class and each agent's role."""
+        from ..understand.model import understand
+
+        return understand(self.reaction, self.perception)
+
+    def role(self, component: Component) -> str | None:
+        """The component's role in this reaction (``reactant``, ``base``, ``solvent``, ...)."""
+        return self.understanding.role(component)
+
+    @cached_property
     def balance(self):
         from ..balance import balance
 

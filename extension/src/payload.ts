@@ -23,6 +23,7 @@ export interface Report {
   drawing?: Drawing | null;
   /** pairs of amines that a pH window separates in the workup */
   separations?: Array<string>;
+  understanding?: Understanding;
 }
 
 export interface Input {
@@ -47,6 +48,10 @@ export interface Component {
   fragments: Array<string>;
   nitrogens: Array<Nitrogen>;
   groups: Array<Group>;
+  /** compound number shown under the structure: 1, 2, ... for reactants and products, a, b, ... for agents */
+  number?: string;
+  /** the component's role in this reaction (base, solvent, catalyst, ...) */
+  role_in_reaction?: string | null;
 }
 
 export interface Nitrogen {
@@ -185,4 +190,34 @@ export interface ComponentDrawing {
   atoms: Array<[number, number]>;
   /** 3D coordinates (V2000 molfile with hydrogens), when embedded */
   molblock?: string | null;
+}
+
+export type AtomRef = [number, number];
+
+export type AtomPair = [AtomRef, AtomRef];
+
+export interface Understanding {
+  class: {
+  id: string;
+  name: string;
+  family: string;
+  expects: Array<string>;
+  formed: Array<AtomPair>;
+  broken: Array<AtomPair>;
+};
+  also_fits: Array<string>;
+  mapping: {
+  source: string;
+  coverage: number;
+  note: string | null;
+};
+  centre: {
+  formed: Array<AtomPair>;
+  broken: Array<AtomPair>;
+  formed_in_products: Array<AtomPair>;
+};
+  roles: Array<{
+  component: number;
+  role: string;
+}>;
 }

@@ -1,0 +1,248 @@
+"""Reaction classes: the catalog in ``data/reaction_classes.toml`` matched on the centre.
+
+A class is data: the bonds it forms and breaks, described by SMARTS of each end as it stood
+before the reaction, with conditions on hydrogen and charge changes and on the metals present.
+The first entry that the centre satisfies is the class. A reaction nothing fits is
+``other``; rules that need a class stay silent there.
+"""
+
+from __future__ import annotations
+
+import tomllib
+from dataclasses import dataclass, field
+from functools import lru_cache
+from importlib import resources
+
+from rdkit import Chem
+
+from .. import _rdlog
+from ..reaction import Reaction
+from .centre import BondChange, Centre
+
+__all__ = ["ReactionClass", "ClassMatch", "catalog", "classify", "OTHER"]
+
+Atom = tuple[int, int]
+
+
+@dataclass(frozen=True)
+class ReactionClass:
+    id: str
+    name: str
+    family: str
+    formed: tuple[tuple[str, str, float | None], ...] = ()
+    broken: tuple[tuple[str, str], ...] = ()
+    order: tuple[tuple[str, str, float, float], ...] = ()
+    gains_h: tuple[str, ...] = ()
+    loses_h: tuple[str, ...] = ()
+    gains_charge: tuple[str, ...] = ()
+    no_changes: bool = False
+    metal_any: tuple[str, ...] = ()
+    metal_none: tuple[str, ...] = ()
+    expects: tuple[str, ...] = ()
+    releases: str = "none"
+
+
+OTHER = ReactionClass(id="other", name="Other (no class fits)", family="other")
+
+
+@dataclass(frozen=True)
+class ClassMatch:
+    """The class of a reaction and the centre bonds that made it so."""
+
+    cls: ReactionClass
+    formed: tuple[BondChange, ...] = ()  # the formed bonds the class named, in its order
+    broken: tuple[BondChange, ...] = ()
+    # (origin atom of the first end, origin atom of the second end) of each named formed bond,
+    # in the class's orientation: for N-acylation, (the nitrogen, the acyl carbon)
+    formed_ends: tuple[tuple[Atom, Atom], ...] = ()
+    broken_ends: tuple[tuple[Atom, Atom], ...] = ()
+    others: tuple[str, ...] = field(default=())  # ids of further classes the centre also fits
+
+    @property
+    def id(self) -> str:
+        return self.cls.id
+
+    @property
+    def family(self) -> str:
+        return self.cls.family
+
+    def to_dict(self) -> dict:
+        return {
+            "id": self.cls.id,
+            "name": self.cls.name,
+            "family": self.cls.family,
+            "expects": list(self.cls.expects),
+            "formed": [[list(a), list(b)] for a, b in self.formed_ends],
+            "broken": [[list(a), list(b)] for a, b in self.broken_ends],
+        }
+
+
+@lru_cache(maxsize=1)
+def catalog() -> tuple[ReactionClass, ...]:
+    data = tomllib.loads(resources.files("chemcheck.data").joinpath("reaction_classes.toml").read_text("utf-8"))
+    out = []
+    for entry in data["class"]:
+        out.append(
+            ReactionClass(
+                id=entry["id"],
+                name=entry["name"],
+                family=entry["family"],
+                formed=tuple((f[0], f[1], float(f[2]) if len(f) > 2 else None) for f in entry.get("formed", ())),
+                broken=tuple((b[0], b[1]) for b in entry.get("broken", ())),
+                order=tuple((o[0], o[1], float(o[2]), float(o[3])) for o in entry.get("order", ())),
+                gains_h=tuple(entry.get("gains_h", ())),
+                loses_h=tuple(entry.get("loses_h", ())),
+                gains_charge=tuple(entry.get("gains_charge", ())),
+                no_changes=bool(entry.get("no_changes", False)),
+                metal_any=tuple(entry.get("metal_any", ())),
+                metal_none=tuple(entry.get("metal_none", ())),
+                expects=tuple(entry.get("expects", ())),
+                releases=entry.get("releases", "none"),
+            )
+        )
+    return tuple(out)
+
+
+@lru_cache(maxsize=None)
+def _query(smarts: str) -> Chem.Mol:
+    with _rdlog.captured():
+        q = Chem.MolFromSmarts(f"[$({smarts})]")
+    if q is None:
+        raise ValueError(f"bad SMARTS in the reaction-class catalog: {smarts!r}")
+    return q
+
+
+class _Matcher:
+    """Answers 'does this origin atom fit this SMARTS', each molecule searched once per SMARTS."""
+
+    def __init__(self, rxn: Reaction) -> None:
+        self._mols = {c.index: c.mol for c in rxn.components}
+        self._hits: dict[tuple[int, str], frozenset[int]] = {}
+
+    def fits(self, atom: Atom, smarts: str) -> bool:
+        key = (atom[0], smarts)
+        hits = self._hits.get(key)
+        if hits is None:
+            mol = self._mols.get(atom[0])
+            hits = frozenset()
+            if mol is not None:
+                with _rdlog.captured():
+                    try:
+                        hits = frozenset(m[0] for m in mol.GetSubstructMatches(_query(smarts), maxMatches=10_000))
+                    except RuntimeError:
+                        hits = frozenset()
+            self._hits[key] = hits
+        return atom[1] in hits
+
+
+def _metals(rxn: Reaction) -> set[str]:
+    out = set()
+    for c in rxn.components:
+        if c.role == "product":
+            continue
+        for a in c.mol.GetAtoms():
+            out.add(a.GetSymbol())
+    return out
+
+
+def _bond_fits(m: _Matcher, change: BondChange, a: str, b: str) -> tuple[Atom, Atom] | None:
+    """The change's two origin atoms in the order (a, b), or None."""
+    if change.atoms_before is None:
+        return None
+    x, y = change.atoms_before
+    if m.fits(x, a) and m.fits(y, b):
+        return (x, y)
+    if m.fits(y, a) and m.fits(x, b):
+        return (y, x)
+    return None
+
+
+def _assign(m: _Matcher, specs, changes: tuple[BondChange, ...], extra=None):
+    """Distinct changes for each spec, in spec order (small: a greedy pass per spec)."""
+    used: set[int] = set()
+    chosen: list[tuple[BondChange, tuple[Atom, Atom]]] = []
+    for spec in specs:
+        found = None
+        for i, ch in enumerate(changes):
+            if i in used:
+                continue
+            if extra is not None and not extra(spec, ch):
+                continue
+            ends = _bond_fits(m, ch, spec[0], spec[1])
+            if ends is not None:
+                found = (i, ch, ends)
+                break
+        if found is None:
+            return None
+        used.add(found[0])
+        chosen.append((found[1], found[2]))
+    return chosen
+
+
+def _fits(cls: ReactionClass, m: _Matcher, centre: Centre, elements: set[str]):
+    if cls.metal_any and not elements.intersection(cls.metal_any):
+        return None
+    if cls.metal_none and elements.intersection(cls.metal_none):
+        return None
+    if cls.no_changes:
+        if centre.changes or not (centre.h_changes or centre.charge_changes):
+            return None
+        return ClassMatch(cls)
+    formed = _assign(
+        m, cls.formed, centre.formed(), lambda spec, ch: spec[2] is None or abs(ch.order_after - spec[2]) < 0.26
+    )
+    if formed is None:
+        return None
+    broken = _assign(m, cls.broken, centre.broken())
+    if broken is None:
+        return None
+    order = _assign(
+        m,
+        cls.order,
+        centre.order_changed(),
+        lambda spec, ch: abs(ch.order_before - spec[2]) < 0.26 and abs(ch.order_after - spec[3]) < 0.26,
+    )
+    if order is None:
+        return None
+    if not cls.formed and not cls.broken and not cls.order and not cls.no_changes:
+        return None
+    for smarts in cls.gains_h:
+        if not any(d > 0 and m.fits(a, smarts) for a, d in centre.h_changes):
+            return None
+    for smarts in cls.loses_h:
+        if not any(d < 0 and m.fits(a, smarts) for a, d in centre.h_changes):
+            return None
+    for smarts in cls.gains_charge:
+        if not any(d > 0 and m.fits(a, smarts) for a, d in centre.charge_changes):
+            return None
+    return ClassMatch(
+        cls,
+        formed=tuple(c for c, _ in formed),
+        broken=tuple(c for c, _ in broken),
+        formed_ends=tuple(e for _, e in formed),
+        broken_ends=tuple(e for _, e in broken),
+    )
+
+
+def classify(rxn: Reaction, centre: Centre) -> ClassMatch:
+    """The first catalog class the centre fits, with the others it also fits; ``other`` when
+    none does (or when nothing was mapped)."""
+    if not rxn.products:
+        return ClassMatch(OTHER)
+    m = _Matcher(rxn)
+    elements = _metals(rxn)
+    first: ClassMatch | None = None
+    others: list[str] = []
+    for cls in catalog():
+        hit = _fits(cls, m, centre, elements)
+        if hit is None:
+            continue
+        if first is None:
+            first = hit
+        elif cls.family != first.family:
+            others.append(cls.id)
+    if first is None:
+        return ClassMatch(OTHER)
+    return ClassMatch(
+        first.cls, first.formed, first.broken, first.formed_ends, first.broken_ends, tuple(dict.fromkeys(others))
+    )
