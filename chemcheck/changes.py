@@ -20,7 +20,7 @@ from . import _rdlog
 from .perceive import canonical_key
 from .reaction import Reaction
 
-__all__ = ["NewBond", "new_bonds_at_nitrogen", "atom_correspondence"]
+__all__ = ["NewBond", "new_bonds_at_nitrogen", "new_bonds_from_map", "atom_correspondence"]
 
 MCS_TIMEOUT_S = 1
 
@@ -192,12 +192,28 @@ def new_bonds_at(reaction: Reaction, element: int = 7) -> list[NewBond]:
     return list(cache[element])
 
 
-def _new_bonds_at(reaction: Reaction, element: int) -> list[NewBond]:
+def new_bonds_from_map(reaction: Reaction, amap, element: int = 7) -> list[NewBond]:
+    """The same as :func:`new_bonds_at`, read from an atom map
+    (:class:`chemcheck.understand.mapping.AtomMap`) instead of the common-substructure search."""
+    corr: dict[tuple[int, int], tuple[int, int]] = {}
+    for product_atom, origin in amap.pairs:
+        corr.setdefault(origin, product_atom)
+    return _new_bonds_at(reaction, element, corr, amap.contributing)
+
+
+def _new_bonds_at(
+    reaction: Reaction, element: int, corr: dict | None = None, contributing: frozenset[int] = frozenset()
+) -> list[NewBond]:
     from .perceive import nitrogen_sites
 
-    corr = atom_correspondence(reaction)
+    if corr is None:
+        corr = atom_correspondence(reaction)
     comps = reaction.components
-    kinds = {c.index: {s.atom_index: s.kind for s in nitrogen_sites(c.mol)} for c in comps if c.role != "agent"}
+    kinds = {
+        c.index: {s.atom_index: s.kind for s in nitrogen_sites(c.mol)}
+        for c in comps
+        if c.role != "agent" or c.index in contributing
+    }
     out = []
     mapped_into: dict[tuple[int, int], set[int]] = {}  # (reactant, product) -> product atoms mapped
     for (ri, _ra), (pi, pa) in corr.items():

@@ -231,11 +231,55 @@ def electrophiles(ctx: Context, names=None) -> list[tuple[Component, list]]:
 
 
 def changed_nitrogens(ctx: Context):
-    """New bonds at nitrogens between reactants and products (cached on the context)."""
+    """New bonds at nitrogens between reactants and products, read from the reaction's atom map
+    (cached on the context)."""
     cached = getattr(ctx, "_new_n_bonds", None)
     if cached is None:
-        from ..changes import new_bonds_at_nitrogen
+        from ..changes import new_bonds_at_nitrogen, new_bonds_from_map
 
-        cached = new_bonds_at_nitrogen(ctx.reaction) if ctx.reaction.products else []
+        cached = []
+        if ctx.reaction.products:
+            amap = ctx.understanding.amap
+            cached = new_bonds_from_map(ctx.reaction, amap)
+            if amap.coverage < 1.0:
+                # product atoms the map left open (a reaction drawn that cannot happen maps
+                # only in part): the common-substructure route speaks for those
+                cached += [
+                    nb for nb in new_bonds_at_nitrogen(ctx.reaction)
+                    if amap.origin(nb.product, nb.product_atom) is None
+                ]
         ctx._new_n_bonds = cached
     return cached
+
+
+def understood(ctx: Context):
+    """The reaction's understanding when products are drawn (the centre needs them), else None:
+    rules then fall back on what each component can do."""
+    if not ctx.reaction.products:
+        return None
+    return ctx.understanding
+
+
+def family_is(ctx: Context, *families: str) -> bool:
+    """True when products are drawn and the reaction's class is of one of ``families``; also
+    True when no product is drawn (nothing to contradict the rule's own reading)."""
+    u = understood(ctx)
+    return u is None or u.family in families
+
+
+def acid_protons_in_salt(comp: Component) -> int:
+    """How many protons an amine salt brings: 2 for a dihydrochloride, 1 for a hydrochloride
+    (strong-acid fragments written beside the amine, or ammonium N-H+ centres when drawn as
+    ions)."""
+    from rdkit import Chem
+
+    frags = Chem.GetMolFrags(comp.mol, asMols=False)
+    n = 0
+    for idx in frags:
+        if len(idx) == 1:
+            atom = comp.mol.GetAtomWithIdx(idx[0])
+            if atom.GetSymbol() in ("Cl", "Br", "I") and atom.GetTotalNumHs() == 1:
+                n += 1
+    if n == 0:
+        n = sum(1 for a in comp.mol.GetAtoms() if a.GetAtomicNum() == 7 and a.GetFormalCharge() > 0 and a.GetTotalNumHs() > 0)
+    return max(n, 1)

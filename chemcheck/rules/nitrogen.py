@@ -20,6 +20,9 @@ from ._support import (
     amounts_given,
     bases_present,
     changed_nitrogens,
+    understood,
+    family_is,
+    acid_protons_in_salt,
     electrophiles,
     nucleophile_sites,
     protonated_at,
@@ -94,8 +97,15 @@ def lewis_acid_quenched_by_amine(ctx: Context):
     """
     r = lewis_acid_quenched_by_amine.rule
     rxn = ctx.reaction
+    u = understood(ctx)
+    if u is not None and u.family not in ("friedel_crafts", "ring_substitution"):
+        # the Lewis acid has another job here (a catalyst, a water scavenger in an imine
+        # formation, CeCl3 beside NaBH4, CuI in an N-arylation): nothing for an amine to quench
+        return
     acids = []
     for comp in rxn.reactants + rxn.agents:
+        if u is not None and u.role(comp) not in ("lewis_acid", None):
+            continue
         for g in ctx.perception(comp).groups:
             if g.name == "lewis_acid":
                 acids.append((comp, g))
@@ -172,7 +182,10 @@ def lewis_acid_quenched_by_amine(ctx: Context):
                 fix += f"; {have / ref.mmol:.2g} equiv present"
         fix += "."
         atoms = [(comp.index, s.atom_index) for s in sites] + [(la_comp.index, la_group.centre)]
-        yield r.finding(msg, atoms=atoms, fix=fix)
+        # an amine among the agents of a patent-style list may belong to another step of the
+        # procedure: a warning; the substrate's own nitrogen is an error
+        own = comp.role == "reactant" or u is None or u.role(comp) == "base"
+        yield r.finding(msg, atoms=atoms, fix=fix, severity="error" if own else "warning")
     if fired or not acylation:
         return
     # no basic nitrogen: count what the carbonyls and the product ketone tie up
@@ -230,6 +243,58 @@ def _nucleophile(ctx: Context, electrophile):
     return max(cands, key=lambda cs: cs[1].pka)
 
 
+# families whose centre releases an acid the amine can take
+_ACID_FAMILIES = {"acylation", "sulfonylation", "alkylation", "urea", "protection"}
+
+
+def _acid_events(ctx: Context):
+    """(electrophile, its atoms to show, nucleophile, its site, acid name, acid pKa, acid per
+    nucleophile) for each acid-releasing N-acylation or N-alkylation. With products drawn, read
+    from the reaction's class and centre (the bond that breaks is the one that releases the
+    acid: a C-Cl that survives into the product releases nothing); without, from the groups."""
+    u = understood(ctx)
+    comps = ctx.reaction.components
+    if u is None:
+        for elec, groups in electrophiles(ctx, set(ACID_RELEASING)):
+            nuc, site = _nucleophile(ctx, elec)
+            if nuc is None:
+                continue
+            name, pka = released_acid(groups)
+            per = 2.0 if groups[0].name == "carbonyl_dihalide" else 1.0
+            atoms = [(elec.index, groups[0].atoms[-1]), (elec.index, groups[0].centre)]
+            yield elec, atoms, nuc, site, name, pka, per, 1.0
+        return
+    if u.family not in _ACID_FAMILIES or u.nucleophile is None or u.electrophile is None:
+        return
+    acid = u.released_acid(ctx.reaction)
+    if acid is None:
+        return
+    nuc, elec = comps[u.nucleophile[0]], comps[u.electrophile[0]]
+    if nuc.index == elec.index or nuc.role == "product" or elec.role == "product":
+        return
+    site = next((x for x in nucleophile_sites(ctx, nuc) if x.atom_index == u.nucleophile[1]), None)
+    if site is None:
+        return
+    if any(a == u.nucleophile and d > 0 for a, d in u.centre.charge_changes):
+        return  # drawn as the ammonium salt: the acid stays on the product
+    # acid per nucleophile: the balanced equation's coefficients (a bis-acylation takes two
+    # acid chlorides per diamine and releases two HCl), else the bonds of the centre
+    b = ctx.balance
+    k = 1.0  # electrophile molecules per nucleophile molecule
+    if b.balanced and b.coefficients.get(nuc.index) and b.coefficients.get(elec.index):
+        k = b.coefficients[elec.index] / b.coefficients[nuc.index]
+    if u.class_id == "urea.carbonyl_transfer":
+        k = min(k, 0.5)  # phosgene or triphosgene: two amines and two HCl per carbonyl
+    # ``per``: acid released and nucleophiles consumed per electrophile (2 for phosgene);
+    # a nucleophile that takes several electrophiles counts as that many reacting N
+    per, sites_per_molecule = (1.0 / k, 1.0) if k < 1 else (1.0, k)
+    atoms = [u.electrophile]
+    leaving = u.leaving_atom()
+    if leaving is not None and leaving[0] == elec.index:
+        atoms.insert(0, leaving)
+    yield elec, atoms, nuc, site, acid[0], acid[1], per, sites_per_molecule
+
+
 def _base_advice(pka_nuc: float) -> str:
     if pka_nuc < 6.5:
         return "pyridine (pKa 5.2), Et3N or aqueous NaHCO3"
@@ -271,21 +336,11 @@ def acid_scavenger_short(ctx: Context):
         C. A. G. N. Montalbetti, V. Falque, Tetrahedron 2005, 61, 10827 (amide bond formation).
     """
     r = acid_scavenger_short.rule
-    for elec, groups in electrophiles(ctx, set(ACID_RELEASING)):
-        nuc, site = _nucleophile(ctx, elec)
-        if nuc is None:
-            continue
+    for elec, elec_atoms, nuc, site, acid_name, acid_pka, per, sites_per_molecule in _acid_events(ctx):
         if salt_info(ctx, nuc)[0]:
             continue  # amine-salt-not-freed covers a salt used as the nucleophile
-        if ctx.reaction.products and not any(nb.reactant == nuc.index for nb in changed_nitrogens(ctx)):
-            continue  # the product drawn leaves this nitrogen untouched (C-acylation, O-acylation)
-        if groups[0].name in ALKYLATING and ctx.reaction.products:
-            changed = [nb for nb in changed_nitrogens(ctx) if nb.reactant == nuc.index]
-            if changed and changed[0].charge_after > 0:
-                continue  # drawn as the ammonium salt: the acid stays on the product
-        acid_name, acid_pka = released_acid(groups)
-        per = 2.0 if groups[0].name == "carbonyl_dihalide" else 1.0
         n_nuc, a1 = amount_mmol(ctx, nuc)
+        n_nuc *= sites_per_molecule  # a diamine acylated twice: two reacting N per molecule
         n_e, a2 = amount_mmol(ctx, elec)
         bases = bases_present(ctx, {nuc.index, elec.index})
         brought = acids_brought_in(ctx, {nuc.index, elec.index} | _acyl_sources(ctx, nuc))
@@ -301,6 +356,26 @@ def acid_scavenger_short(ctx: Context):
         taken = protonated_at(ctx, nuc, site)  # where the released acid puts its proton
         nucleophile = Acceptor("nucleophile", taken.pka, n_nuc)
         acceptors = [b.acceptor() for b in bases]
+        # The acylation or alkylation is irreversible: a base weaker than the amine, present in
+        # enough equivalents to hold all the acid, still takes the reaction to completion (the
+        # small free-amine fraction keeps reacting; pyridine is also a nucleophilic catalyst).
+        # The ceiling applies only when the acid has no base to go to but the nucleophile.
+        holders = [b for b in bases if b.pka >= acid_pka + 2.0]
+        capacity = sum(b.mmol for b in holders)
+        needed = per * min(n_e, n_nuc / per) + protons
+        if holders and capacity >= 0.9 * needed:
+            strongest = max(holders, key=lambda b: b.pka)
+            if strongest.pka < taken.pka - 1.5 and not assumed:
+                yield r.finding(
+                    f"The base {strongest.label} (conjugate-acid pKa {strongest.pka:.1f}) is weaker than {nuc.label} "
+                    f"(pKa {taken.pka:.1f}): it holds the {acid_name} released, but most of the amine not yet "
+                    "reacted sits as its salt, so the reaction may be slower than with Et3N or DIPEA. It still goes "
+                    "to completion: the bond-forming step is irreversible.",
+                    atoms=[(nuc.index, site.atom_index), *elec_atoms],
+                    fix=f"For a faster reaction use 1.1–1.5 equiv of Et3N or DIPEA; {strongest.label} in excess also works.",
+                    severity="info",
+                )
+            continue
         if reaches(nucleophile, n_e, acceptors, 0.9, **balance_args):
             continue  # 90 % of the stoichiometric limit is reached: nothing to report
         x = max_conversion(nucleophile, n_e, acceptors, **balance_args)
@@ -351,7 +426,7 @@ def acid_scavenger_short(ctx: Context):
             # more of an amino acid brings more of its own protons: no help
             + ("." if internal else f"; or use {1 + per:.0f} equiv of {nuc.label}.")
         )
-        atoms = [(nuc.index, site.atom_index), (elec.index, groups[0].atoms[-1]), (elec.index, groups[0].centre)]
+        atoms = [(nuc.index, site.atom_index), *elec_atoms]
         yield r.finding(" ".join(parts), atoms=atoms, fix=fix, severity="warning" if assumed else "error")
 
 

@@ -617,6 +617,32 @@ def _condensation_candidates(carbonyl, amine_comp, n_idx: int, kind: str) -> lis
     return rank_labels(out, minor_gap=0.5, none_gap=5.0)
 
 
+def _adds_up_less_water(carbonyl, amine, products) -> bool:
+    """Some product has the atoms of the carbonyl and the amine less one water (or is their
+    iminium salt, less water and hydroxide)."""
+    from collections import Counter
+
+    def counts(mol):
+        c: Counter[str] = Counter()
+        for a in mol.GetAtoms():
+            c[a.GetSymbol()] += 1
+            c["H"] += a.GetTotalNumHs()
+        return c
+
+    want = counts(carbonyl.mol) + counts(amine.mol)
+    want.subtract({"H": 2, "O": 1})
+    want = +want
+    for p in products:
+        got = counts(p.mol)
+        if got == want:
+            return True
+        iminium = Counter(want)
+        iminium.subtract({"H": 0})
+        if p.charge > 0 and got - Counter({"H": 1}) == +iminium:
+            return True
+    return False
+
+
 @rule(id="condensation-product-mismatch", title="Condensation product does not fit the amine", severity="error")
 def condensation_product_mismatch(ctx: Context):
     """Aldehydes and ketones with amines: imine, enamine or iminium, by the class of the amine.
@@ -687,7 +713,7 @@ def condensation_product_mismatch(ctx: Context):
                 severity="warning",
             )
         return
-    if not changed:
+    if not changed or not _adds_up_less_water(carbonyl, amine_comp, rxn.products):
         if cands and site.kind in ("primary_amine", "ammonia", "aryl_amine", "secondary_amine") and not ctx.balance.balanced:
             # a condensation product drawn whose atoms the reactants cannot supply (a CH2 lost,
             # the wrong amine's N-substituent): name the product these reactants give
