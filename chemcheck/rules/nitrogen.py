@@ -487,10 +487,25 @@ def amine_salt_not_freed(ctx: Context):
     """
     r = amine_salt_not_freed.rule
     rxn = ctx.reaction
-    for comp in rxn.reactants:
+    u = understood(ctx)
+    for comp in rxn.reactants + (rxn.agents if u is not None else []):
         is_salt, sites = salt_info(ctx, comp)
         if not is_salt or not sites:
             continue
+        if u is not None:
+            # with products drawn: only the salt whose nitrogen the centre says reacts (NH4Cl
+            # or brine among the agents is work-up or an ammonia source, not a salt to free)
+            if u.nucleophile is None or u.nucleophile[0] != comp.index or u.family in ("acid_base", "deprotection", "other"):
+                continue
+            if u.family == "reductive_amination":
+                yield r.finding(
+                    f"{comp.label} is an amine salt in a reductive amination: the salt buffers the imine formation and "
+                    "no acid is released, so no extra base is needed (a little AcOH or NaOAc is common).",
+                    atoms=[(comp.index, x.atom_index) for x in sites],
+                    fix="Nothing to add; if the imine forms slowly, add 1 equiv of Et3N or NaOAc.",
+                    severity="info",
+                )
+                continue
         others = [c for c in rxn.reactants + rxn.agents if c.index != comp.index]
         acyl = [c for c in others if ctx.perception(c).has(*ACYLATING)]
         alkyl = [c for c in others if ctx.perception(c).has(*ALKYLATING)]
@@ -499,6 +514,8 @@ def amine_salt_not_freed(ctx: Context):
             continue
         pka = max(s.pka for s in sites)
         acid_need = 1.0 if (acyl or alkyl) else 0.0
+        if u is not None:
+            acid_need = 1.0 if u.released_acid(rxn) is not None else 0.0
         elec = (acyl or alkyl or carbonyl)[0]
         n_salt, a1 = amount_mmol(ctx, comp)
         exclude = {comp.index, elec.index}
@@ -506,7 +523,7 @@ def amine_salt_not_freed(ctx: Context):
         strong = [b for b in bases if b.pka >= pka - 1.0]
         weak = [b for b in bases if b.pka < pka - 1.0]
         have = sum(b.mmol for b in strong) / n_salt if n_salt else 0.0
-        need = 1.0 + acid_need
+        need = acid_protons_in_salt(comp) + acid_need  # a dihydrochloride brings two protons
         if have + 0.05 >= need:
             continue
         assumed = a1 or any(b.assumed for b in bases)
@@ -514,7 +531,7 @@ def amine_salt_not_freed(ctx: Context):
         msg = (
             f"{comp.label} is the {salt} of an amine (pKa {pka:.1f}): its nitrogen carries a proton and cannot react "
             f"until a base takes it off. It needs {need:g} equiv of a base with a conjugate-acid pKa of about {pka - 1:.0f} "
-            f"or more (1 to free the amine"
+            f"or more ({need - acid_need:g} to free the amine"
             + (", 1 for the acid the reaction releases" if acid_need else "")
             + f"); {have:.2g} equiv present."
         )
@@ -534,11 +551,73 @@ def amine_salt_not_freed(ctx: Context):
 
 
 # --------------------------------------------------------------------------- impossible bonds
-_NH_ACIDITY = {"sulfonamide": 10.0, "imide": 8.5, "amide": 17.0, "carbamate": 17.0, "urea": 18.0, "pyrrole_type": 17.0}
-# how strong a base (conjugate-acid pKa) makes the N-H reactive: sulfonamides and imides with
-# carbonates, amides with hydroxide in DMSO or stronger, pyrroles and indoles with carbonates in
-# DMF at best (common practice)
-_BASE_NEEDED = {"sulfonamide": 9.0, "imide": 8.0, "amide": 13.5, "carbamate": 13.5, "urea": 13.5, "pyrrole_type": 10.0}
+# N-H acidity on the DMSO scale, where deprotonations for N-alkylation and N-acylation are run
+# (F. G. Bordwell, Acc. Chem. Res. 1988, 21, 456, and the Bordwell pKa table: acetamide 25.5,
+# benzamide 23.3, acetanilide 21.5, methyl carbamate 24.8, urea 26.9, benzenesulfonamide 16.1,
+# phthalimide 13.4, succinimide 14.7, pyrrole 23.0, indole 21.0, carbazole 19.9; the lactam
+# 2-pyrrolidinone 24.2 from memory)
+_NH_DMSO = {"sulfonamide": 16.1, "imide": 14.0, "amide": 24.0, "carbamate": 24.8, "urea": 26.9}
+_PYRROLE_DMSO = {0: ("pyrrole", 23.0), 1: ("indole", 21.0), 2: ("carbazole", 19.9)}
+# the conjugate acids of the bases, on the same scale (Bordwell table: Et3NH+ 9.0, pyridinium
+# 3.4, acetic acid 12.3, phenol 18.0, water 31.4, tert-butanol 32.2, diisopropylamine 36,
+# hexamethyldisilazane 26 (from memory), H2 taken as 35; DBU-H+ 13.9 and TMG-H+ 13.2 from memory)
+_AMINE_BASE_DMSO = {"tertiary_amine": 9.0, "secondary_amine": 10.5, "primary_amine": 11.0, "pyridine_type": 3.4, "amidine": 13.9, "guanidine": 13.2}
+_GROUP_BASE_DMSO = {
+    "hydride_ion": 35.0, "metal_amide": 36.0, "organometallic_base": 45.0, "alkoxide": 32.2,
+    "hydroxide": 31.4, "phenoxide": 18.0, "carboxylate": 12.3,
+}
+# Carbonates and phosphates have no meaningful DMSO pKa (they act as suspended solids); in DMF,
+# DMSO, MeCN or acetone, K2CO3 and Cs2CO3 N-alkylate sulfonamides, imides, carbazoles and indoles
+# (common practice), not amides or carbamates: taken as reaching N-H acids up to pKa 21.
+_CARBONATE_REACH = 21.0
+
+
+def _strongest_base_dmso(ctx: Context) -> tuple[float, str] | None:
+    """(DMSO-scale strength, the base's label) of the strongest base among reactants and agents."""
+    best: tuple[float, str] | None = None
+    for comp in ctx.reaction.reactants + ctx.reaction.agents:
+        p = ctx.perception(comp)
+        if salt_info(ctx, comp)[0]:
+            continue
+        values = [_GROUP_BASE_DMSO[g.name] for g in p.groups if g.name in _GROUP_BASE_DMSO]
+        if p.has("carbonate", "phosphate_base"):
+            values.append(_CARBONATE_REACH)
+        if not p.has(*ACYLATING, "alkyl_halide", "alkyl_sulfonate"):
+            values += [_AMINE_BASE_DMSO[s.kind] for s in p.nitrogens if s.kind in _AMINE_BASE_DMSO]
+        for v in values:
+            if best is None or v > best[0]:
+                best = (v, comp.label)
+    return best
+
+
+def _nh_acidity(mol, idx: int, kind: str) -> tuple[str, float] | None:
+    """(what the N-H is, its DMSO pKa), or None for an azole N-H that reacts as a neutral
+    nucleophile through its other ring N (imidazoles, pyrazoles, triazoles)."""
+    if kind == "pyrrole_type":
+        atom = mol.GetAtomWithIdx(idx)
+        info = mol.GetRingInfo()
+        ring = next((r for r in info.AtomRings() if idx in r and len(r) == 5), None)
+        if ring is None:
+            return None
+        if any(mol.GetAtomWithIdx(i).GetAtomicNum() == 7 and i != idx for i in ring):
+            return None
+        fused = sum(
+            1 for r in info.AtomRings()
+            if len(r) == 6 and len(set(r) & set(ring)) == 2 and all(mol.GetAtomWithIdx(i).GetIsAromatic() for i in r)
+        )
+        if any(n.GetAtomicNum() == 6 and not n.GetIsAromatic() for n in atom.GetNeighbors()):
+            return None
+        return _PYRROLE_DMSO[min(fused, 2)]
+    if kind in _NH_DMSO:
+        return kind, _NH_DMSO[kind]
+    return None
+
+
+# the classes whose N-H reaction needs the N deprotonated first
+_DEPROTONATION_CLASSES = {
+    "alkylation.halide", "acylation.acid_halide", "acylation.anhydride", "acylation.chloroformate",
+    "sulfonylation.sulfonyl_halide", "sulfonylation.anhydride", "protection.boc", "protection.cbz", "protection.fmoc",
+}
 
 
 @rule(id="nitrogen-cannot-react-as-drawn", title="A nitrogen is drawn forming a bond it cannot form", severity="error")
@@ -574,8 +653,7 @@ def nitrogen_cannot_react_as_drawn(ctx: Context):
     """
     r = nitrogen_cannot_react_as_drawn.rule
     comps = ctx.reaction.components
-    all_bases = bases_present(ctx, set())
-    strongest = max((b.pka for b in all_bases), default=None)
+    u = understood(ctx)
     dmap_acyl = any(
         any(s.kind == "pyridine_type" for s in ctx.perception(c).nitrogens) and c.kind == "catalyst"
         for c in ctx.reaction.agents
@@ -608,10 +686,11 @@ def nitrogen_cannot_react_as_drawn(ctx: Context):
                 atoms=atoms,
                 fix="Reduce the nitro group to the amine first (H2/Pd-C, Fe/HCl, SnCl2), then form the bond.",
             )
-        elif before in _BASE_NEEDED and nb.heavy_after > nb.heavy_before:
+        elif before in ("sulfonamide", "imide", "amide", "carbamate", "urea", "pyrrole_type") and nb.heavy_after > nb.heavy_before:
             has_h = rc.mol.GetAtomWithIdx(nb.reactant_atom).GetTotalNumHs() > 0
-            need = _BASE_NEEDED[before]
             if not has_h:
+                if u is not None and not u.known:
+                    continue
                 yield r.finding(
                     f"The {_word(before)} nitrogen of {rc.label} has no N–H and no free lone pair: it cannot gain the "
                     f"bond drawn in {pc.label}.",
@@ -619,19 +698,30 @@ def nitrogen_cannot_react_as_drawn(ctx: Context):
                     fix="Check the product: another atom is the one that reacts.",
                 )
                 continue
+            if u is not None and u.class_id not in _DEPROTONATION_CLASSES:
+                continue  # a catalysed N-arylation, an isocyanate addition, a cyclisation: no base needed
             if dmap_acyl and before in ("amide", "carbamate", "imide", "sulfonamide"):
                 continue  # DMAP-catalysed acylation (N-Boc of amides and carbamates) is fine
-            if strongest is not None and strongest >= need:
+            acidity = _nh_acidity(rc.mol, nb.reactant_atom, before)
+            if acidity is None:
+                continue
+            what, nh_pka = acidity
+            base = _strongest_base_dmso(ctx)
+            # an irreversible alkylation or acylation pulls a small equilibrium fraction of the
+            # anion through: a base within about 2 units of the N-H is enough (common practice)
+            if base is not None and base[0] >= nh_pka - 2.0:
                 continue
             base_text = (
-                f"the strongest base present has a conjugate-acid pKa of {strongest:.1f}" if strongest is not None else "no base is present"
+                f"the strongest base present, {base[1]}, has a conjugate acid of pKa about {base[0]:.0f}"
+                if base is not None else "no base is present"
             )
             yield r.finding(
-                f"The {_word(before)} N–H of {rc.label} (pKa about {_NH_ACIDITY[before]:.0f}) is drawn reacting in "
-                f"{pc.label}, but {base_text}: without deprotonation this nitrogen is not nucleophilic.",
+                f"The {what} N–H of {rc.label} (pKa about {nh_pka:.0f} in DMSO) is drawn reacting in {pc.label}, but "
+                f"{base_text} on the same scale: without deprotonation this nitrogen is not nucleophilic.",
                 atoms=atoms,
-                fix="Deprotonate first: NaH or KOtBu in DMF or THF (amides, carbamates), Cs2CO3 or K2CO3 in DMF "
-                "(sulfonamides, imides, indoles).",
+                fix="Deprotonate first: NaH or KOtBu in DMF or THF (amides, carbamates, pyrroles), Cs2CO3 or K2CO3 "
+                "in DMF (sulfonamides, imides, indoles, carbazoles). DMSO-scale values: F. G. Bordwell, "
+                "Acc. Chem. Res. 1988, 21, 456.",
             )
 
 
@@ -1006,6 +1096,76 @@ def _water_reactive(comp, g) -> bool:
     return not ligands or len(triflate) < len(ligands)
 
 
+_SOLVOLYSIS_FAMILIES = {"acylation", "sulfonylation", "urea", "protection"}
+
+
+def _solvolysis_understood(ctx: Context, r, u, reactive):
+    """reagent-solvolysis with the reaction understood: only the electrophile the centre says
+    reacts (or the ring-substitution Lewis acid), only a protic component that is the reaction's
+    solvent (not its work-up), and only where it can compete: an amine outcompetes water and
+    alcohols for an acid chloride, anhydride or isocyanate by orders of magnitude (aminolysis
+    against alcoholysis: common practice, Schotten–Baumann), a weak N-nucleophile does not."""
+    comps = ctx.reaction.components
+    solvents = [comps[i] for i in u.components_with_role("solvent")]
+    protic = [c for c in solvents if ctx.perception(c).has("water", "alcohol")]
+    water = [c for c in ctx.reaction.agents if ctx.perception(c).has("water")]
+    aqueous_base = any(
+        ctx.perception(c).has("hydroxide", "carbonate") for c in ctx.reaction.reactants + ctx.reaction.agents
+    )
+    if u.family in ("acylation", "sulfonylation") and water and aqueous_base and u.electrophile is not None:
+        elec = comps[u.electrophile[0]]
+        nuc = comps[u.nucleophile[0]]
+        yield r.finding(
+            f"Schotten–Baumann conditions: {elec.label} with {nuc.label} and aqueous base. The amine outcompetes "
+            "water when the electrophile is added slowly, cold and with vigorous stirring; some hydrolysis is "
+            "expected, so use a small excess of it.",
+            atoms=[u.electrophile],
+            fix=f"Add {elec.label} slowly to the cooled, well-stirred two-phase mixture; use 1.1–1.5 equiv.",
+            severity="info",
+        )
+        return
+    if not protic or len(protic) < len(solvents):
+        return  # an aprotic solvent is the reaction's: water or alcohol is co-solvent or work-up
+    for comp, g, what in reactive:
+        pc = protic[0]
+        word = "water" if ctx.perception(pc).has("water") else "the alcohol"
+        if what == "water-reactive Lewis acid":
+            if u.role(comp) != "lewis_acid":
+                continue
+            yield r.finding(
+                f"{comp.label} reacts with the solvent {pc.label}: {word} destroys the Lewis acid (exothermically, "
+                "releasing acid) before it can act.",
+                atoms=[(comp.index, g.centre)],
+                fix="Use a dry aprotic solvent (DCM, 1,2-dichloroethane, nitrobenzene, CS2) and dry reagents.",
+            )
+            continue
+        if u.family not in _SOLVOLYSIS_FAMILIES or u.electrophile is None or u.electrophile[0] != comp.index:
+            continue
+        nuc = comps[u.nucleophile[0]] if u.nucleophile else None
+        site = None
+        if nuc is not None:
+            site = next((x for x in ctx.sites(nuc) if x.atom_index == u.nucleophile[1]), None)
+        strong = site is not None and site.pka is not None and site.pka >= 3.0
+        target = nuc.label if nuc is not None else "the intended nucleophile"
+        if strong:
+            # the amine wins; some of the electrophile is lost to the solvent
+            yield r.finding(
+                f"{comp.label} in {pc.label}: {target} reacts much faster than {word}, but some of the {what} is "
+                "lost to the solvent.",
+                atoms=[(comp.index, g.centre)],
+                fix=f"Use a small excess of {comp.label} (1.1–1.5 equiv), or a dry aprotic solvent.",
+                severity="info",
+            )
+            continue
+        yield r.finding(
+            f"{comp.label} is an {what} and the solvent is {pc.label}: {word} competes with {target}, a weak "
+            f"nitrogen nucleophile, and consumes the {what}"
+            + (", releasing acid." if what != "isocyanate" else " (a carbamate or, with water, an amine and CO2)."),
+            atoms=[(comp.index, g.centre), u.nucleophile] if u.nucleophile else [(comp.index, g.centre)],
+            fix="Use a dry aprotic solvent (DCM, THF, MeCN, toluene) and dry reagents.",
+        )
+
+
 @rule(id="reagent-solvolysis", title="A protic solvent or reagent destroys the electrophile", severity="warning")
 def reagent_solvolysis(ctx: Context):
     """Acylating agents and water-reactive Lewis acids together with water or an alcohol.
@@ -1048,6 +1208,10 @@ def reagent_solvolysis(ctx: Context):
                 reactive.append((comp, g, "water-reactive Lewis acid"))
                 break
     if not reactive:
+        return
+    u = understood(ctx)
+    if u is not None:
+        yield from _solvolysis_understood(ctx, r, u, reactive)
         return
     amine_nuc = [c for c in rxn.reactants if nucleophile_sites(ctx, c)]
     protic = []
