@@ -580,6 +580,8 @@ def _strongest_base_dmso(ctx: Context) -> tuple[float, str] | None:
         if salt_info(ctx, comp)[0]:
             continue
         values = [_GROUP_BASE_DMSO[g.name] for g in p.groups if g.name in _GROUP_BASE_DMSO]
+        if comp.mol.GetNumAtoms() == 1 and comp.mol.GetAtomWithIdx(0).GetSymbol() in ("Li", "Na", "K", "Cs"):
+            values.append(35.0)  # an alkali metal (or its N-H salt recorded as the metal) takes the proton
         if p.has("carbonate", "phosphate_base"):
             values.append(_CARBONATE_REACH)
         if not p.has(*ACYLATING, "alkyl_halide", "alkyl_sulfonate"):
@@ -700,7 +702,7 @@ def nitrogen_cannot_react_as_drawn(ctx: Context):
                 continue
             if u is not None and u.class_id not in _DEPROTONATION_CLASSES:
                 continue  # a catalysed N-arylation, an isocyanate addition, a cyclisation: no base needed
-            if dmap_acyl and before in ("amide", "carbamate", "imide", "sulfonamide"):
+            if dmap_acyl and before in ("amide", "carbamate", "imide", "sulfonamide", "pyrrole_type"):
                 continue  # DMAP-catalysed acylation (N-Boc of amides and carbamates) is fine
             acidity = _nh_acidity(rc.mol, nb.reactant_atom, before)
             if acidity is None:
@@ -777,11 +779,20 @@ def overalkylation_risk(ctx: Context):
     """
     r = overalkylation_risk.rule
     rxn = ctx.reaction
+    u = understood(ctx)
+    if u is not None and (u.class_id != "alkylation.halide" or u.nucleophile is None or u.electrophile is None):
+        return  # the drawn reaction is not an SN2 N-alkylation (a urea from a haloalkyl isocyanate keeps its C-Cl)
     for elec, groups in electrophiles(ctx, ALKYLATING):
+        if u is not None and elec.index != u.electrophile[0]:
+            continue
         for comp in rxn.reactants:
             if comp.index == elec.index or salt_info(ctx, comp)[0]:
                 continue
+            if u is not None and comp.index != u.nucleophile[0]:
+                continue
             sites = [s for s in ctx.sites(comp) if s.kind in ("primary_amine", "ammonia", "secondary_amine", "aryl_amine") and s.pka is not None]
+            if u is not None:
+                sites = [s for s in sites if s.atom_index == u.nucleophile[1]]
             if not sites:
                 continue
             site = max(sites, key=lambda s: s.pka)
@@ -818,12 +829,15 @@ def overalkylation_risk(ctx: Context):
                     "product (exhaustive methylation)."
                 )
             atoms = [(comp.index, site.atom_index), (elec.index, groups[0].centre)]
+            # a secondary amine taken to the tertiary amine with about one equivalent: the
+            # quaternary salt is the only over-alkylation, slower and often minor (an info note)
             yield r.finding(
                 msg,
                 atoms=atoms,
                 fix="For one alkyl group use reductive amination (the aldehyde or ketone with NaBH(OAc)3), a large "
                 "excess of the amine (5 equiv or more), or a protecting-group route (sulfonamide or Boc, alkylate, "
                 "deprotect).",
+                severity="info" if secondary and ratio < 1.5 else None,
             )
 
 
@@ -1145,7 +1159,9 @@ def _solvolysis_understood(ctx: Context, r, u, reactive):
         site = None
         if nuc is not None:
             site = next((x for x in ctx.sites(nuc) if x.atom_index == u.nucleophile[1]), None)
-        strong = site is not None and site.pka is not None and site.pka >= 3.0
+        # anilines, even electron-poor ones, outcompete water and alcohols (Mayr nucleophilicity
+        # N about 9-13 against 5-7); amide, sulfonamide and carbamate N-H do not
+        strong = site is not None and site.pka is not None and site.pka >= 0.0
         target = nuc.label if nuc is not None else "the intended nucleophile"
         if strong:
             # the amine wins; some of the electrophile is lost to the solvent
@@ -1463,6 +1479,18 @@ def amide_from_unactivated_acid(ctx: Context):
             )
         else:
             salt = "the acid is not electrophilic enough to acylate the amine, even where it protonates it only in part."
+        additive = next((c for c in rxn.agents if c.mol.HasSubstructMatch(_COUPLING_ADDITIVE)), None)
+        if additive is not None:
+            # HOBt, HOAt, HOSu or Oxyma are used only beside a coupling agent: the record has left
+            # the coupling agent out, which a chemist reads as an omission, not a failed reaction
+            yield r.finding(
+                f"{amine.label} is drawn acylated by the carboxylic acid {acid.label} with {additive.label}, an additive "
+                "used beside a coupling agent, but no coupling agent is written: the record seems to leave it out.",
+                atoms=[(amine.index, nb.reactant_atom), (acid.index, acid_atom)],
+                fix="Write the coupling agent (EDC·HCl, DIC, HATU, …) among the agents so the check can count it.",
+                severity="info",
+            )
+            return
         yield r.finding(
             f"{amine.label} is drawn acylated by the carboxylic acid {acid.label}, but nothing here activates the "
             f"acid: {salt} Without a coupling agent the amide forms only on heating the salt above about 160 °C.",
@@ -1471,6 +1499,10 @@ def amide_from_unactivated_acid(ctx: Context):
             "agents, or make the acid chloride first (SOCl2, or oxalyl chloride with a drop of DMF).",
         )
         return
+
+
+# N-hydroxy coupling additives: HOBt, HOAt, HOSu, HOPO, Oxyma (Montalbetti & Falque 2005)
+_COUPLING_ADDITIVE = Chem.MolFromSmarts("[OX2H1,OX1-][$([nX3]1nnc2c1cccc2),$([nX3]1nnc2c1nccc2),$([nX3]1nnc2c1cccn2),$(N1C(=O)CCC1=O),$(N=C(C#N)C(=O)O)]")
 
 
 def _acyl_sources(ctx: Context, nuc) -> set[int]:
