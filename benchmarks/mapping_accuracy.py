@@ -223,6 +223,8 @@ def score(rows, route: str, timeout_s: float = 2.0, show_misses: int = 0) -> dic
     sources: dict[str, int] = defaultdict(int)
     misses = []
     skipped = 0
+    if external:
+        rows = [r for r in rows if r["id"] in external]  # the rows the other environment mapped
     for r in rows:
         try:
             ref_rxn = parse_reaction(r["mapped_reaction_smiles"])

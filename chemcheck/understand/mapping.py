@@ -228,6 +228,58 @@ def _settle(rxn: Reaction, pairs: list[tuple[Atom, Atom]]) -> list[tuple[Atom, A
 _MAX_PLACEMENTS = 2000
 
 
+def _swap_heteroatoms(rxn: Reaction, pairs, heavy, rounds: int = 4):
+    """Exchange the origins of two product heteroatoms of one element, both from one origin
+    component, when that removes bond changes: mappers sometimes take the ring N of a
+    piperazinone for the N that was acylated, or the oxime O for the carbonyl O reduced."""
+    comps = rxn.components
+    best = _distance(rxn, pairs, heavy)
+    if best == (0, 0):
+        return pairs
+    for _ in range(rounds):
+        from .centre import reaction_centre
+
+        fwd = dict(pairs)
+        centre = reaction_centre(rxn, _result(rxn, MAPPER, pairs, None))
+        at_centre = {a for c in centre.changes if c.atoms_after for a in c.atoms_after}
+        at_centre |= {p for p, o in fwd.items() if any(c.atoms_before and o in c.atoms_before for c in centre.changes)}
+        improved = False
+        used = set(fwd.values())
+        givers = {o[0] for o in used}
+        for p in sorted(at_centre):
+            if p not in fwd:
+                continue
+            el = comps[p[0]].mol.GetAtomWithIdx(p[1]).GetAtomicNum()
+            if el in (1, 6):
+                continue
+            trials = []
+            # another product atom of the element, from the same origin component: exchange
+            for q, oq in fwd.items():
+                if q != p and q[0] == p[0] and oq[0] == fwd[p][0]:
+                    if comps[q[0]].mol.GetAtomWithIdx(q[1]).GetAtomicNum() == el:
+                        trial = dict(fwd)
+                        trial[p], trial[q] = fwd[q], fwd[p]
+                        trials.append(trial)
+            # an atom of the element that a contributing component has left unused
+            for ci in sorted(givers):
+                for a in comps[ci].mol.GetAtoms():
+                    if a.GetAtomicNum() == el and (ci, a.GetIdx()) not in used:
+                        trial = dict(fwd)
+                        trial[p] = (ci, a.GetIdx())
+                        trials.append(trial)
+            for trial in trials:
+                cost = _distance(rxn, list(trial.items()), heavy)
+                if cost < best:
+                    best, fwd, improved = cost, trial, True
+                    break
+            if improved:
+                break
+        pairs = list(fwd.items())
+        if not improved:
+            break
+    return pairs
+
+
 def _replace_block(rmol: Chem.Mol, pmol: Chem.Mol, block: list[tuple[int, int]]):
     r_atoms = [oa for oa, _ in block]
     image = dict(block)
@@ -367,15 +419,15 @@ def _indigo_map(rxn: Reaction, timeout_s: float, variants: int = VARIANTS) -> li
         try:
             try:
                 pieces = {c.index: _pieces(c, v) for c in (*reactants, *agents, *products)}
-                found = _indigo_once(order, others, products, pieces, heavy, deadline)
+                found = _indigo_once(rxn, order, others, products, pieces, heavy, deadline)
             except MapperFailed as exc:
                 if "aromatic" not in str(exc):
                     raise
                 # the mapper cannot place hydrogens on some aromatic rings RDKit reads (pyrroles
                 # and imidazoles drawn in another tautomer): give it Kekule structures
                 pieces = {c.index: _pieces(c, v, kekule=True) for c in (*reactants, *agents, *products)}
-                found = _indigo_once(order, others, products, pieces, heavy, deadline)
-            pairs = _settle(rxn, found)
+                found = _indigo_once(rxn, order, others, products, pieces, heavy, deadline)
+            pairs = _swap_heteroatoms(rxn, _settle(rxn, found), heavy)
         except MapperFailed as exc:
             failure = failure or exc
             continue
@@ -399,8 +451,8 @@ def _distance(rxn: Reaction, pairs, heavy) -> tuple[int, int]:
     return (open_atoms + len(centre.changes), sum(abs(d) for _, d in centre.h_changes))
 
 
-def _indigo_once(reactants, agents, products, pieces, heavy, deadline) -> list[tuple[Atom, Atom]]:
-    first = _indigo_run(reactants, products, pieces, deadline)
+def _indigo_once(rxn, reactants, agents, products, pieces, heavy, deadline) -> list[tuple[Atom, Atom]]:
+    first = _complete(rxn, _indigo_run(reactants, products, pieces, deadline))
     covered = {p for p, _ in first}
     if not agents or heavy <= covered or time.monotonic() >= deadline:
         return first
@@ -415,7 +467,38 @@ def _indigo_once(reactants, agents, products, pieces, heavy, deadline) -> list[t
         if p not in covered and o not in used:
             merged.append((p, o))
             used.add(o)
-    return merged
+    return _complete(rxn, merged)
+
+
+def _complete(rxn: Reaction, pairs: list[tuple[Atom, Atom]]) -> list[tuple[Atom, Atom]]:
+    """Map the product atoms a mapper left open next to mapped ones, onto unused atoms of the
+    same element next to their origins: the O of a ketone reduced to an alcohol, the N of a
+    nitro group reduced to an amine (mappers skip atoms whose bonds or charges change). The
+    reactant's own atom is closer than one an agent would give."""
+    comps = rxn.components
+    fwd = dict(pairs)
+    used = set(fwd.values())
+    queue = list(fwd.items())
+    while queue:
+        (pc, pa), (oc, oa) = queue.pop()
+        pmol, omol = comps[pc].mol, comps[oc].mol
+        for pn in pmol.GetAtomWithIdx(pa).GetNeighbors():
+            pk = (pc, pn.GetIdx())
+            if pk in fwd or pn.GetAtomicNum() <= 1:
+                continue
+            p_order = _order(pmol.GetBondBetweenAtoms(pa, pn.GetIdx()))
+            options = [
+                (abs(_order(omol.GetBondBetweenAtoms(oa, on.GetIdx())) - p_order), on.GetIdx())
+                for on in omol.GetAtomWithIdx(oa).GetNeighbors()
+                if on.GetAtomicNum() == pn.GetAtomicNum() and (oc, on.GetIdx()) not in used
+            ]
+            if not options:
+                continue
+            ok = (oc, min(options)[1])
+            fwd[pk] = ok
+            used.add(ok)
+            queue.append((pk, ok))
+    return list(fwd.items())
 
 
 def _indigo_run(origins, products, pieces, deadline: float) -> list[tuple[Atom, Atom]]:
