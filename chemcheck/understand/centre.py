@@ -131,19 +131,27 @@ def reaction_centre(rxn: Reaction, amap: AtomMap) -> Centre:
                 ob_order = bond_order(before)
                 if ob_order != after_order:
                     changes.append(BondChange("order", pair_before, _pair(pa, pb), els, ob_order, after_order))
-    # origin side: bonds of contributing components that do not survive
+    # origin side: bonds of contributing components that do not survive. A partial map (a
+    # chemist's map of the centre only, or a mapper's incomplete one) leaves atoms unmapped
+    # that did reach a product: they are matched to unmapped product atoms by growing the map
+    # along bonds of the same elements and order, and a bond to one of them is not broken.
+    implied = _implied(rxn, amap) if amap.coverage < 1 else {}
+
+    def image(a: Atom) -> Atom | None:
+        return amap.image(*a) or implied.get(a)
+
     for ci in sorted(amap.contributing):
         mol = comps[ci].mol
         for b in mol.GetBonds():
             ra, rb = (ci, b.GetBeginAtomIdx()), (ci, b.GetEndAtomIdx())
-            ia, ib = amap.image(*ra), amap.image(*rb)
-            if ia is None and ib is None:
+            if amap.image(*ra) is None and amap.image(*rb) is None:
                 continue
             pair = _pair(ra, rb)
             if pair in seen_before:
                 continue
+            ia, ib = image(ra), image(rb)
             if ia is not None and ib is not None and _bond(rxn, ia, ib) is not None:
-                # both ends reach a product bonded, but not as a mapped pair (a second image)
+                # both ends reach a product, bonded (through an implied atom, or a second image)
                 continue
             after = _pair(ia, ib) if ia is not None and ib is not None else None
             els = tuple(sorted((_symbol(rxn, ra), _symbol(rxn, rb))))
@@ -166,13 +174,41 @@ def reaction_centre(rxn: Reaction, amap: AtomMap) -> Centre:
         gone = tuple(
             a.GetIdx()
             for a in comps[ci].mol.GetAtoms()
-            if a.GetAtomicNum() > 1 and amap.image(ci, a.GetIdx()) is None
+            if a.GetAtomicNum() > 1 and amap.image(ci, a.GetIdx()) is None and (ci, a.GetIdx()) not in implied
         )
         if gone:
             leaving.append((ci, gone))
     order = {"broken": 0, "formed": 1, "order": 2}
     changes.sort(key=lambda c: (order[c.kind], c.atoms_before or (), c.atoms_after or ()))
     return Centre(tuple(changes), tuple(sorted(h_changes)), tuple(sorted(q_changes)), tuple(leaving))
+
+
+def _implied(rxn: Reaction, amap: AtomMap) -> dict[Atom, Atom]:
+    """Unmapped reactant atoms matched to unmapped product atoms, grown from the mapped pairs
+    along bonds of the same order between atoms of the same element (first match wins)."""
+    comps = rxn.components
+    taken_p = {p for p, _ in amap.pairs}
+    out: dict[Atom, Atom] = {}
+    queue = [(o, p) for p, o in amap.pairs]
+    while queue:
+        (rc, ra), (pc, pa) = queue.pop()
+        rmol, pmol = comps[rc].mol, comps[pc].mol
+        for rb in rmol.GetAtomWithIdx(ra).GetNeighbors():
+            rkey = (rc, rb.GetIdx())
+            if amap.image(*rkey) is not None or rkey in out or rb.GetAtomicNum() <= 1:
+                continue
+            r_order = bond_order(rmol.GetBondBetweenAtoms(ra, rb.GetIdx()))
+            for pb in pmol.GetAtomWithIdx(pa).GetNeighbors():
+                pkey = (pc, pb.GetIdx())
+                if pkey in taken_p or pb.GetAtomicNum() != rb.GetAtomicNum():
+                    continue
+                if bond_order(pmol.GetBondBetweenAtoms(pa, pb.GetIdx())) != r_order:
+                    continue
+                out[rkey] = pkey
+                taken_p.add(pkey)
+                queue.append((rkey, pkey))
+                break
+    return out
 
 
 def _hs(atom: Chem.Atom) -> int:

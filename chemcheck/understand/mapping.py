@@ -177,6 +177,8 @@ def _compute(rxn: Reaction, timeout_s: float) -> AtomMap:
         note = f"the atom mapper is not available ({exc})"
     except MapperFailed as exc:
         note = f"the atom mapper gave no map ({exc})"
+    except Exception as exc:  # a molecule the mapper or RDKit chokes on: fall back, never raise
+        note = f"the atom mapper failed ({type(exc).__name__})"
     try:
         pairs = _mcs_pairs(rxn)
     except Exception as exc:  # the fallback must never take the check down
@@ -191,6 +193,155 @@ def _mcs_pairs(rxn: Reaction) -> list[tuple[Atom, Atom]]:
 
     corr = atom_correspondence(rxn)
     return [(p, r) for r, p in corr.items()]
+
+
+# ---- minimal chemical distance
+
+
+def _settle(rxn: Reaction, pairs: list[tuple[Atom, Atom]]) -> list[tuple[Atom, Atom]]:
+    """Re-place each block of a mapper's answer (the atoms one origin component gives one
+    product component) where it keeps every bond among them and changes fewest atoms.
+
+    Mappers sometimes place a symmetric part one step round (the ring of cyclohexanone turned
+    on the cyclohexyl of the amine it gives), which reads as C-C bonds broken and formed. When
+    the block's own bonds, elements and orders can be found among the same product atoms, the
+    placement with the fewest changes in heavy neighbours and hydrogens (the principle of
+    minimal chemical distance) is kept.
+    """
+    comps = rxn.components
+    blocks: dict[tuple[int, int], list[tuple[int, int]]] = {}
+    for (pc, pa), (oc, oa) in pairs:
+        blocks.setdefault((oc, pc), []).append((oa, pa))
+    out: list[tuple[Atom, Atom]] = []
+    for (oc, pc), block in blocks.items():
+        better = None
+        if len(block) >= 3:
+            try:
+                better = _replace_block(comps[oc].mol, comps[pc].mol, block)
+            except (RuntimeError, ValueError):
+                better = None
+        for oa, pa in better or block:
+            out.append(((pc, pa), (oc, oa)))
+    return out
+
+
+_MAX_PLACEMENTS = 2000
+
+
+def _swap_heteroatoms(rxn: Reaction, pairs, heavy, rounds: int = 4):
+    """Exchange the origins of two product heteroatoms of one element, both from one origin
+    component, when that removes bond changes: mappers sometimes take the ring N of a
+    piperazinone for the N that was acylated, or the oxime O for the carbonyl O reduced."""
+    comps = rxn.components
+    best = _distance(rxn, pairs, heavy)
+    if best == (0, 0):
+        return pairs
+    for _ in range(rounds):
+        from .centre import reaction_centre
+
+        fwd = dict(pairs)
+        centre = reaction_centre(rxn, _result(rxn, MAPPER, pairs, None))
+        at_centre = {a for c in centre.changes if c.atoms_after for a in c.atoms_after}
+        at_centre |= {p for p, o in fwd.items() if any(c.atoms_before and o in c.atoms_before for c in centre.changes)}
+        improved = False
+        used = set(fwd.values())
+        givers = {o[0] for o in used}
+        for p in sorted(at_centre):
+            if p not in fwd:
+                continue
+            el = comps[p[0]].mol.GetAtomWithIdx(p[1]).GetAtomicNum()
+            if el in (1, 6):
+                continue
+            trials = []
+            # another product atom of the element, from the same origin component: exchange
+            for q, oq in fwd.items():
+                if q != p and q[0] == p[0] and oq[0] == fwd[p][0]:
+                    if comps[q[0]].mol.GetAtomWithIdx(q[1]).GetAtomicNum() == el:
+                        trial = dict(fwd)
+                        trial[p], trial[q] = fwd[q], fwd[p]
+                        trials.append(trial)
+            # an atom of the element that a contributing component has left unused
+            for ci in sorted(givers):
+                for a in comps[ci].mol.GetAtoms():
+                    if a.GetAtomicNum() == el and (ci, a.GetIdx()) not in used:
+                        trial = dict(fwd)
+                        trial[p] = (ci, a.GetIdx())
+                        trials.append(trial)
+            for trial in trials:
+                cost = _distance(rxn, list(trial.items()), heavy)
+                if cost < best:
+                    best, fwd, improved = cost, trial, True
+                    break
+            if improved:
+                break
+        pairs = list(fwd.items())
+        if not improved:
+            break
+    return pairs
+
+
+def _replace_block(rmol: Chem.Mol, pmol: Chem.Mol, block: list[tuple[int, int]]):
+    r_atoms = [oa for oa, _ in block]
+    image = dict(block)
+    internal = [
+        b for b in rmol.GetBonds()
+        if b.GetBeginAtomIdx() in image and b.GetEndAtomIdx() in image
+    ]
+    changed = sum(
+        1 for b in internal
+        if (pb := pmol.GetBondBetweenAtoms(image[b.GetBeginAtomIdx()], image[b.GetEndAtomIdx()])) is None
+        or _order(pb) != _order(b)
+    )
+    current = (changed, _placement_cost(rmol, pmol, block))
+    if current == (0, 0):
+        return None
+    # the block as a query: its atoms (elements) and its bonds (orders)
+    query = Chem.RWMol()
+    index = {}
+    for a in r_atoms:
+        atom = rmol.GetAtomWithIdx(a)
+        qa = Chem.Atom(atom.GetAtomicNum())
+        qa.SetIsAromatic(atom.GetIsAromatic())
+        qa.SetNoImplicit(True)
+        index[a] = query.AddAtom(qa)
+    for b in internal:
+        query.AddBond(index[b.GetBeginAtomIdx()], index[b.GetEndAtomIdx()], b.GetBondType())
+    q = query.GetMol()
+    q.UpdatePropertyCache(strict=False)
+    targets = set(image.values())
+    best = None
+    for match in pmol.GetSubstructMatches(q, uniquify=False, useChirality=False, maxMatches=_MAX_PLACEMENTS):
+        if set(match) != targets:
+            continue
+        cand = [(a, match[index[a]]) for a in r_atoms]
+        # bond orders: a plain molecule as query compares bond types, aromatic included
+        cost = (0, _placement_cost(rmol, pmol, cand))
+        if best is None or cost < best[0]:
+            best = (cost, cand)
+    if best is not None and best[0] < current:
+        return best[1]
+    return None
+
+
+def _order(bond: Chem.Bond) -> float:
+    return 1.5 if bond.GetIsAromatic() else bond.GetBondTypeAsDouble()
+
+
+def _placement_cost(rmol: Chem.Mol, pmol: Chem.Mol, pairs) -> int:
+    total = 0
+    for a, b in pairs:
+        ra, pa = rmol.GetAtomWithIdx(a), pmol.GetAtomWithIdx(b)
+        rh = sum(1 for n in ra.GetNeighbors() if n.GetAtomicNum() > 1)
+        ph = sum(1 for n in pa.GetNeighbors() if n.GetAtomicNum() > 1)
+        total += abs(rh - ph) + abs(_hcount(ra) - _hcount(pa))
+    return total
+
+
+def _hcount(atom: Chem.Atom) -> int:
+    try:
+        return atom.GetTotalNumHs()
+    except RuntimeError:
+        return atom.GetNumExplicitHs()
 
 
 # ---- the Indigo route
@@ -213,36 +364,96 @@ def _indigo():
     return inst
 
 
-def _pieces(comp) -> list[tuple[str, list[int]]]:
-    """Each fragment of a component as (SMILES, chemcheck atom index of each SMILES atom)."""
-    mol = comp.mol
+def _pieces(comp, variant: int = 0, kekule: bool = False) -> list[tuple[str, list[int]]]:
+    """Each fragment of a component as (SMILES, chemcheck atom index of each SMILES atom);
+    ``variant`` > 0 starts the SMILES at another atom (the mapper's answer depends on the
+    order it reads atoms in)."""
     out = []
     with _rdlog.captured():
-        for frag in Chem.GetMolFrags(mol, asMols=False, sanitizeFrags=False):
+        frags_atoms: list = []
+        try:
+            frags = Chem.GetMolFrags(
+                comp.mol, asMols=True, sanitizeFrags=False, fragsMolAtomMapping=frags_atoms
+            )
+        except Exception as exc:
+            raise MapperFailed(f"component {comp.index + 1} cannot be written") from exc
+        for frag, atoms in zip(frags, frags_atoms):
+            n = frag.GetNumAtoms()
+            root = (variant * n) // (VARIANTS + 1) if variant and n > 2 else -1
             try:
-                smi = Chem.MolFragmentToSmiles(
-                    mol, atomsToUse=list(frag), canonical=True, isomericSmiles=True, kekuleSmiles=False
+                if kekule:
+                    frag = Chem.Mol(frag)
+                    Chem.Kekulize(frag, clearAromaticFlags=True)
+                smi = Chem.MolToSmiles(
+                    frag, canonical=True, isomericSmiles=True, rootedAtAtom=root, kekuleSmiles=kekule
                 )
             except Exception as exc:
                 raise MapperFailed(f"component {comp.index + 1} cannot be written") from exc
-            order = [int(x) for x in mol.GetProp("_smilesAtomOutputOrder").strip("[]").split(",") if x.strip()]
-            if len(order) != len(frag):
+            order = [int(x) for x in frag.GetProp("_smilesAtomOutputOrder").strip("[]").split(",") if x.strip()]
+            if len(order) != n:
                 raise MapperFailed(f"component {comp.index + 1} cannot be written")
-            out.append((smi, order))
+            out.append((smi, [atoms[i] for i in order]))
     return out
 
 
-def _indigo_map(rxn: Reaction, timeout_s: float) -> list[tuple[Atom, Atom]]:
-    deadline = time.monotonic() + max(float(timeout_s), 0.01)
+#: the mapper reads the reaction this many times, its atoms in different orders; the answer
+#: with the fewest bond changes (minimal chemical distance) is kept
+VARIANTS = 3
+
+
+def _indigo_map(rxn: Reaction, timeout_s: float, variants: int = VARIANTS) -> list[tuple[Atom, Atom]]:
+    deadline = time.monotonic() + max(float(timeout_s), 0.0)
     reactants = [c for c in rxn.reactants if c.mol.GetNumAtoms()]
     agents = [c for c in rxn.agents if c.mol.GetNumAtoms()]
     products = [c for c in rxn.products if c.mol.GetNumAtoms()]
-    pieces = {c.index: _pieces(c) for c in (*reactants, *agents, *products)}
-    first = _indigo_run(reactants, products, pieces, deadline)
-    covered = {p for p, _ in first}
     heavy = {
         (c.index, a.GetIdx()) for c in products for a in c.mol.GetAtoms() if a.GetAtomicNum() > 1
     }
+    best = None
+    failure: MapperFailed | None = None
+    for v in range(max(variants, 1)):
+        if v and time.monotonic() >= deadline:
+            break
+        order = reactants if v % 2 == 0 else reactants[::-1]
+        others = agents[::-1] if v % 2 else agents
+        try:
+            try:
+                pieces = {c.index: _pieces(c, v) for c in (*reactants, *agents, *products)}
+                found = _indigo_once(rxn, order, others, products, pieces, heavy, deadline)
+            except MapperFailed as exc:
+                if "aromatic" not in str(exc):
+                    raise
+                # the mapper cannot place hydrogens on some aromatic rings RDKit reads (pyrroles
+                # and imidazoles drawn in another tautomer): give it Kekule structures
+                pieces = {c.index: _pieces(c, v, kekule=True) for c in (*reactants, *agents, *products)}
+                found = _indigo_once(rxn, order, others, products, pieces, heavy, deadline)
+            pairs = _swap_heteroatoms(rxn, _settle(rxn, found), heavy)
+        except MapperFailed as exc:
+            failure = failure or exc
+            continue
+        cost = _distance(rxn, pairs, heavy)
+        if best is None or cost < best[0]:
+            best = (cost, pairs)
+        if cost == (0, 0):
+            break
+    if best is None:
+        raise failure or MapperFailed("mapper error")
+    return best[1]
+
+
+def _distance(rxn: Reaction, pairs, heavy) -> tuple[int, int]:
+    """(product heavy atoms left unmapped + bonds changed, hydrogens moved): smaller is closer."""
+    from .centre import reaction_centre
+
+    amap = _result(rxn, MAPPER, pairs, None)
+    centre = reaction_centre(rxn, amap)
+    open_atoms = len(heavy - {p for p, _ in amap.pairs})
+    return (open_atoms + len(centre.changes), sum(abs(d) for _, d in centre.h_changes))
+
+
+def _indigo_once(rxn, reactants, agents, products, pieces, heavy, deadline) -> list[tuple[Atom, Atom]]:
+    first = _complete(rxn, _indigo_run(reactants, products, pieces, deadline))
+    covered = {p for p, _ in first}
     if not agents or heavy <= covered or time.monotonic() >= deadline:
         return first
     try:
@@ -256,7 +467,38 @@ def _indigo_map(rxn: Reaction, timeout_s: float) -> list[tuple[Atom, Atom]]:
         if p not in covered and o not in used:
             merged.append((p, o))
             used.add(o)
-    return merged
+    return _complete(rxn, merged)
+
+
+def _complete(rxn: Reaction, pairs: list[tuple[Atom, Atom]]) -> list[tuple[Atom, Atom]]:
+    """Map the product atoms a mapper left open next to mapped ones, onto unused atoms of the
+    same element next to their origins: the O of a ketone reduced to an alcohol, the N of a
+    nitro group reduced to an amine (mappers skip atoms whose bonds or charges change). The
+    reactant's own atom is closer than one an agent would give."""
+    comps = rxn.components
+    fwd = dict(pairs)
+    used = set(fwd.values())
+    queue = list(fwd.items())
+    while queue:
+        (pc, pa), (oc, oa) = queue.pop()
+        pmol, omol = comps[pc].mol, comps[oc].mol
+        for pn in pmol.GetAtomWithIdx(pa).GetNeighbors():
+            pk = (pc, pn.GetIdx())
+            if pk in fwd or pn.GetAtomicNum() <= 1:
+                continue
+            p_order = _order(pmol.GetBondBetweenAtoms(pa, pn.GetIdx()))
+            options = [
+                (abs(_order(omol.GetBondBetweenAtoms(oa, on.GetIdx())) - p_order), on.GetIdx())
+                for on in omol.GetAtomWithIdx(oa).GetNeighbors()
+                if on.GetAtomicNum() == pn.GetAtomicNum() and (oc, on.GetIdx()) not in used
+            ]
+            if not options:
+                continue
+            ok = (oc, min(options)[1])
+            fwd[pk] = ok
+            used.add(ok)
+            queue.append((pk, ok))
+    return list(fwd.items())
 
 
 def _indigo_run(origins, products, pieces, deadline: float) -> list[tuple[Atom, Atom]]:
@@ -270,10 +512,14 @@ def _indigo_run(origins, products, pieces, deadline: float) -> list[tuple[Atom, 
     try:
         ind.setOption("aam-timeout", max(left_ms, 1))
         r = ind.loadReaction(text)
-        r.automap("discard")
+        r.automap("discard ignore_charges")
     except Exception as exc:  # IndigoException: timeout, unreadable structure
         msg = str(exc).lower()
-        raise MapperFailed("out of time" if "timeout" in msg or "time" in msg else "mapper error") from None
+        if "timeout" in msg or "timed out" in msg:
+            raise MapperFailed("out of time") from None
+        if "aromatic" in msg:
+            raise MapperFailed("mapper error on an aromatic ring") from None
+        raise MapperFailed("mapper error") from None
     try:
         mols_l = list(r.iterateReactants())
         mols_r = list(r.iterateProducts())
