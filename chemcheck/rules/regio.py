@@ -10,7 +10,7 @@ from .. import _rdlog
 from ..regio import Candidate, Prediction, attach, canonical, elimination, rank_labels, same_compound, substitution
 from ..basicity import _protonate
 from . import Context, rule
-from ._support import ACYLATING, changed_nitrogens, salt_info
+from ._support import ACYLATING, changed_nitrogens, family_is, salt_info
 
 _SMALL_BASES = {"alkoxide", "hydroxide"}
 
@@ -348,6 +348,8 @@ def ring_substitution_regiochemistry(ctx: Context):
         M. B. Smith, *March's Advanced Organic Chemistry*, 8th ed., Wiley 2020, ch. 11.
     """
     r = ring_substitution_regiochemistry.rule
+    if not family_is(ctx, "friedel_crafts", "ring_substitution"):
+        return  # the centre shows no substitution on a ring (an organozinc addition, a coupling)
     info = _ring_class(ctx)
     if info is None:
         return
@@ -429,6 +431,8 @@ def ring_too_deactivated(ctx: Context):
         N. Greeves, S. Warren, *Organic Chemistry*, 2nd ed., OUP 2012, ch. 21.
     """
     r = ring_too_deactivated.rule
+    if not family_is(ctx, "friedel_crafts", "ring_substitution"):
+        return  # the centre shows no substitution on a ring (an organozinc addition, a coupling)
     info = _ring_class(ctx)
     if info is None or not info[0].startswith("Friedel-Crafts"):
         return
@@ -514,6 +518,8 @@ def ring_acylation_without_lewis_acid(ctx: Context):
         N. Greeves, S. Warren, *Organic Chemistry*, 2nd ed., OUP 2012, ch. 21.
     """
     r = ring_acylation_without_lewis_acid.rule
+    if not family_is(ctx, "friedel_crafts", "ring_substitution"):
+        return  # the centre shows no substitution on a ring (an organozinc addition, a coupling)
     rxn = ctx.reaction
     if not rxn.products:
         return

@@ -378,6 +378,7 @@ def _pieces(comp, variant: int = 0, kekule: bool = False) -> list[tuple[str, lis
         except Exception as exc:
             raise MapperFailed(f"component {comp.index + 1} cannot be written") from exc
         for frag, atoms in zip(frags, frags_atoms):
+            frag = _neutral_amines(frag)
             n = frag.GetNumAtoms()
             root = (variant * n) // (VARIANTS + 1) if variant and n > 2 else -1
             try:
@@ -393,6 +394,29 @@ def _pieces(comp, variant: int = 0, kekule: bool = False) -> list[tuple[str, lis
             if len(order) != n:
                 raise MapperFailed(f"component {comp.index + 1} cannot be written")
             out.append((smi, [atoms[i] for i in order]))
+    return out
+
+
+def _neutral_amines(frag: Chem.Mol) -> Chem.Mol:
+    """The fragment with each protonated amine written as the free amine (same atoms, same
+    order): the mapper pairs an ammonium salt's N with the neutral N of an amide or imine only
+    when both are drawn alike."""
+    targets = [
+        a.GetIdx() for a in frag.GetAtoms()
+        if a.GetAtomicNum() == 7 and a.GetFormalCharge() == 1 and a.GetTotalNumHs() > 0
+        and not any(nb.GetFormalCharge() < 0 for nb in a.GetNeighbors())
+    ]
+    if not targets:
+        return frag
+    rw = Chem.RWMol(frag)
+    for i in targets:
+        atom = rw.GetAtomWithIdx(i)
+        h = atom.GetTotalNumHs()
+        atom.SetFormalCharge(0)
+        atom.SetNoImplicit(True)
+        atom.SetNumExplicitHs(h - 1)
+    out = rw.GetMol()
+    out.UpdatePropertyCache(strict=False)
     return out
 
 
