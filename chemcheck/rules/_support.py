@@ -66,6 +66,11 @@ class Base:
     mmol: float
     atom: int | None
     assumed: bool
+    shown_pka: float | None = None  # the pKa of the species that takes the proton, for messages
+
+    @property
+    def display_pka(self) -> float:
+        return self.pka if self.shown_pka is None else self.shown_pka
 
     def acceptor(self) -> Acceptor:
         return Acceptor(f"{self.label}#{self.atom}", self.pka, self.mmol)
@@ -182,8 +187,11 @@ def bases_present(ctx: Context, exclude: set[int], *, aqueous: bool = False) -> 
                 n.GetTotalNumHs() for n in comp.mol.GetAtomWithIdx(g.centre).GetNeighbors()
             ):
                 sites = sites[-1:]  # bicarbonate: one proton, the carbonate's second
-            for pka in sites:
-                out.append(Base(comp, comp.label, pka, mmol, g.centre, assumed))
+            shown = AQUEOUS_BASE_SITES.get(g.name, sites)
+            if len(shown) != len(sites):
+                shown = shown[-len(sites):]
+            for pka, seen in zip(sites, shown):
+                out.append(Base(comp, comp.label, pka, mmol, g.centre, assumed, seen))
     return out
 
 
@@ -199,7 +207,9 @@ def acids_brought_in(ctx: Context, exclude: set[int]) -> list[tuple[Component, f
         if is_salt:
             out.append((comp, max(s.pka for s in sites), mmol))
             continue
-        if p.has("hydrogen_halide", "sulfonic_acid", "perfluoro_acid", "nitric_acid"):
+        if p.has("perfluoro_acid") and not p.has("hydrogen_halide", "sulfonic_acid"):
+            out.append((comp, 0.3, mmol))  # trifluoroacetic acid, pKa 0.2-0.5 (CRC)
+        elif p.has("hydrogen_halide", "sulfonic_acid", "perfluoro_acid", "nitric_acid"):
             out.append((comp, -2.0, mmol))
         elif p.has("carboxylic_acid") and not p.has("carbonate") and comp.kind in ("acid", None, "other"):
             out.append((comp, 4.76, mmol))

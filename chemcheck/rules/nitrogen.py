@@ -367,7 +367,7 @@ def acid_scavenger_short(ctx: Context):
             strongest = max(holders, key=lambda b: b.pka)
             if strongest.pka < taken.pka - 1.5 and not assumed:
                 yield r.finding(
-                    f"The base {strongest.label} (conjugate-acid pKa {strongest.pka:.1f}) is weaker than {nuc.label} "
+                    f"The base {strongest.label} (conjugate-acid pKa {strongest.display_pka:.1f}) is weaker than {nuc.label} "
                     f"(pKa {taken.pka:.1f}): it holds the {acid_name} released, but most of the amine not yet "
                     "reacted sits as its salt, so the reaction may be slower than with Et3N or DIPEA. It still goes "
                     "to completion: the bond-forming step is irreversible.",
@@ -408,7 +408,8 @@ def acid_scavenger_short(ctx: Context):
             eq = sum(b.mmol for b in bases if b.atom == strongest.atom and b.component.index == strongest.component.index) / ref
             if strongest.pka < taken.pka - 1.5:
                 parts.append(
-                    f"The strongest base present, {strongest.label} (pKa {strongest.pka:.1f}), is too weak to take the "
+                    f"The strongest base present, {strongest.label} (conjugate-acid pKa {strongest.display_pka:.1f}), "
+                    "is too weak to take the "
                     f"proton from the protonated {nuc.label}."
                 )
             else:
@@ -537,7 +538,7 @@ def amine_salt_not_freed(ctx: Context):
         )
         if weak:
             w = max(weak, key=lambda b: b.pka)
-            msg += f" {w.label} (pKa {w.pka:.1f}) is too weak to free it."
+            msg += f" {w.label} (pKa {w.display_pka:.1f}) is too weak to free it."
         if assumed:
             msg += " (Amounts not given for every component: 1 equiv assumed.)"
         atoms = [(comp.index, s.atom_index) for s in sites]
@@ -951,6 +952,9 @@ def uphill_proton_transfer(ctx: Context):
     """
     r = uphill_proton_transfer.rule
     rxn = ctx.reaction
+    u = understood(ctx)
+    if u is not None and u.known and u.family != "acid_base":
+        return  # a proton transfer coupled to an irreversible bond-forming step is not uphill
     if not rxn.products:
         return
     freed = _free_basing(ctx)

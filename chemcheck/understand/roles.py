@@ -120,10 +120,12 @@ def resolve_roles(rxn: Reaction, family: str, contributing: frozenset[int], perc
             role = "drying_agent"
         elif _in_kb("reductant_metal", comp, counts, metal_present, family):
             role = "reductant"
-        elif kind == "lewis_acid":
-            role = "lewis_acid" if family in _EAS_FAMILIES else "additive"
+        elif kind == "lewis_acid" and family in _EAS_FAMILIES:
+            role = "lewis_acid"
         elif _in_kb("catalyst", comp, counts, metal_present, family):
-            role = "catalyst"
+            role = "catalyst"  # CuI in an N-arylation, PdCl2 in a coupling
+        elif kind == "lewis_acid":
+            role = "additive"  # TiCl4 removing water, CeCl3 beside NaBH4, ZnCl2 in a reductive amination
         elif _in_kb("ligand", comp, counts, metal_present, family):
             role = "ligand"
         elif _in_kb("additive", comp, counts, metal_present, family):
