@@ -39,6 +39,12 @@ def render() -> str:
         parts.append(f"| [`{r.id}`](#{r.id}) | {r.severity} | {r.family} | {r.title} |\n")
     for r in rules:
         parts.append(f"\n## {r.id}\n\n**{r.title}** — default severity: {r.severity}.\n")
+        if r.applies_to:
+            fams = ", ".join(f"`{f}`" for f in r.applies_to)
+            parts.append(
+                f"\nReads the reaction's understanding: with products drawn, it applies to the class families {fams} "
+                "(see [understanding.md](understanding.md)); with no product drawn it reads the components.\n"
+            )
         docs = r.docs
         for section in DOC_SECTIONS:
             body = textwrap.dedent(docs.get(section, "")).strip()

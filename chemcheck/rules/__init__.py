@@ -93,6 +93,9 @@ class Rule:
     severity: Severity
     check: CheckFn
     family: str
+    # the reaction-class families the rule reads when products are drawn (empty: every reaction);
+    # with products drawn and another class, a rule that needs one stays silent
+    applies_to: tuple[str, ...] = ()
 
     @property
     def docs(self) -> dict[str, str]:
@@ -125,7 +128,7 @@ class Rule:
 _REGISTRY: dict[str, Rule] = {}
 
 
-def rule(*, id: str, title: str, severity: Severity) -> Callable[[CheckFn], CheckFn]:
+def rule(*, id: str, title: str, severity: Severity, applies_to: tuple[str, ...] = ()) -> Callable[[CheckFn], CheckFn]:
     if not _ID.match(id):
         raise ValueError(f"rule id must be kebab-case naming the flagged pattern: {id!r}")
 
@@ -133,7 +136,7 @@ def rule(*, id: str, title: str, severity: Severity) -> Callable[[CheckFn], Chec
         if id in _REGISTRY:
             raise ValueError(f"rule {id!r} registered twice")
         family = fn.__module__.rsplit(".", 1)[-1]
-        r = Rule(id=id, title=title, severity=severity, check=fn, family=family)
+        r = Rule(id=id, title=title, severity=severity, check=fn, family=family, applies_to=tuple(applies_to))
         _REGISTRY[id] = r
         fn.rule = r  # type: ignore[attr-defined]
         return fn

@@ -62,7 +62,12 @@ def _lewis_basic_carbonyls(ctx: Context, comp) -> int:
     return n
 
 
-@rule(id="lewis-acid-quenched-by-amine", title="A basic nitrogen quenches the Lewis acid", severity="error")
+@rule(
+    id="lewis-acid-quenched-by-amine",
+    title="A basic nitrogen quenches the Lewis acid",
+    severity="error",
+    applies_to=("friedel_crafts", "ring_substitution"),
+)
 def lewis_acid_quenched_by_amine(ctx: Context):
     """Basic nitrogen meets a Lewis acid.
 
@@ -301,7 +306,12 @@ def _base_advice(pka_nuc: float) -> str:
     return "Et3N (pKa 10.7) or DIPEA, or aqueous NaOH or K2CO3 in a biphasic (Schotten–Baumann) set-up"
 
 
-@rule(id="acid-scavenger-short", title="Too little base for the acid the reaction releases", severity="error")
+@rule(
+    id="acid-scavenger-short",
+    title="Too little base for the acid the reaction releases",
+    severity="error",
+    applies_to=("acylation", "sulfonylation", "alkylation", "urea", "protection"),
+)
 def acid_scavenger_short(ctx: Context):
     """Count the protons an N-acylation or N-alkylation releases against the bases present.
 
@@ -459,7 +469,12 @@ def _salt_name(ctx: Context, comp) -> str:
     return "salt"
 
 
-@rule(id="amine-salt-not-freed", title="An amine salt is used without a base to free it", severity="error")
+@rule(
+    id="amine-salt-not-freed",
+    title="An amine salt is used without a base to free it",
+    severity="error",
+    applies_to=("acylation", "sulfonylation", "alkylation", "urea", "protection", "condensation", "reductive_amination", "snar", "metal_n_arylation", "quaternisation"),
+)
 def amine_salt_not_freed(ctx: Context):
     """An amine weighed as its salt is the nucleophile, with too little base to free it.
 
@@ -748,7 +763,7 @@ def _is_activated_alkyl(ctx: Context, comp) -> bool:
     return False
 
 
-@rule(id="overalkylation-risk", title="Direct N-alkylation gives mixtures", severity="warning")
+@rule(id="overalkylation-risk", title="Direct N-alkylation gives mixtures", severity="warning", applies_to=("alkylation",))
 def overalkylation_risk(ctx: Context):
     """A primary or secondary amine with an alkyl halide or sulfonate, drawn as one alkylation.
 
@@ -921,7 +936,7 @@ def _base_pka_of(frag):
     return None
 
 
-@rule(id="uphill-proton-transfer", title="A drawn proton transfer runs uphill", severity="warning")
+@rule(id="uphill-proton-transfer", title="A drawn proton transfer runs uphill", severity="warning", applies_to=("acid_base", "other"))
 def uphill_proton_transfer(ctx: Context):
     """An acid–base reaction drawn in the direction its equilibrium does not favour.
 
@@ -1186,7 +1201,12 @@ def _solvolysis_understood(ctx: Context, r, u, reactive):
         )
 
 
-@rule(id="reagent-solvolysis", title="A protic solvent or reagent destroys the electrophile", severity="warning")
+@rule(
+    id="reagent-solvolysis",
+    title="A protic solvent or reagent destroys the electrophile",
+    severity="warning",
+    applies_to=("acylation", "sulfonylation", "urea", "protection", "friedel_crafts", "ring_substitution"),
+)
 def reagent_solvolysis(ctx: Context):
     """Acylating agents and water-reactive Lewis acids together with water or an alcohol.
 

@@ -314,7 +314,7 @@ def _aromatic_substrate(ctx: Context, exclude):
     return None
 
 
-@rule(id="ring-substitution-regiochemistry", title="Ring substitution drawn at an unexpected position", severity="warning")
+@rule(id="ring-substitution-regiochemistry", title="Ring substitution drawn at an unexpected position", severity="warning", applies_to=("friedel_crafts", "ring_substitution"))
 def ring_substitution_regiochemistry(ctx: Context):
     """Predict the position of an electrophilic aromatic substitution and compare.
 
@@ -405,7 +405,7 @@ def ring_substitution_regiochemistry(ctx: Context):
         yield f
 
 
-@rule(id="ring-too-deactivated", title="The ring is too deactivated for the substitution", severity="error")
+@rule(id="ring-too-deactivated", title="The ring is too deactivated for the substitution", severity="error", applies_to=("friedel_crafts", "ring_substitution"))
 def ring_too_deactivated(ctx: Context):
     """Friedel–Crafts reactions on rings that carry strongly deactivating groups.
 
@@ -486,7 +486,7 @@ _IMINE_OR_ENAMINE = Chem.MolFromSmarts("[$([CX3]=[NX2]),$([CX3]([NX3])=[CX3])]")
 _PI_EXCESSIVE = Chem.MolFromSmarts("[nX3;r5;!$(n-[CX3]=O);!$(n-S(=O)=O)]")
 
 
-@rule(id="ring-acylation-without-lewis-acid", title="Ring acylation drawn with nothing to promote it", severity="warning")
+@rule(id="ring-acylation-without-lewis-acid", title="Ring acylation drawn with nothing to promote it", severity="warning", applies_to=("friedel_crafts", "ring_substitution"))
 def ring_acylation_without_lewis_acid(ctx: Context):
     """A Friedel–Crafts acylation drawn without a Lewis acid or a strong acid.
 
