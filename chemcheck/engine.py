@@ -80,6 +80,8 @@ def check(reaction: str | Reaction, amounts: dict[str, str] | None = None) -> Re
     ctx = Context(rxn, amounts)
     for comp in rxn.components:
         comp.kind = ctx.perception(comp).kind if comp.role == "agent" else None
+        if not comp.name:
+            comp.word = _word_for(ctx.perception(comp), comp.role)
     stoich = ctx.stoichiometry  # amount errors are raised here, before any rule runs
     findings: list[Finding] = []
     for comp in rxn.components:
@@ -111,6 +113,21 @@ def check(reaction: str | Reaction, amounts: dict[str, str] | None = None) -> Re
                 fix=f"Draw {salt} in the reaction, or give the amount of the free base {base}.",
             )
         )
+    if rxn.products:
+        u = ctx.understanding
+        if u.amap.note or u.amap.coverage < 0.5:
+            findings.append(
+                Finding(
+                    rule="reaction-not-mapped",
+                    severity="info",
+                    title="The reaction's atoms could not be followed",
+                    message="Which atom of the reactants becomes which atom of the products could not be worked out"
+                    + (f" ({u.amap.note})" if u.amap.note else f" (only {100 * u.amap.coverage:.0f} % of the product atoms)")
+                    + ": the checks that need the reaction class were made only where they could be.",
+                    atoms=(),
+                    fix="Write atom maps in the reaction SMILES, or check that every reactant is drawn.",
+                )
+            )
     strict = bool(os.environ.get("CHEMCHECK_STRICT"))
     for r in registry().values():
         try:
@@ -155,6 +172,34 @@ def check(reaction: str | Reaction, amounts: dict[str, str] | None = None) -> Re
     for stage in ctx.sections:
         report.extra.update(stage)
     return report
+
+
+# what an unnamed component is, by its first reactive group or nitrogen, in the words of a
+# scheme's caption (the order puts the group a chemist would name first)
+_GROUP_WORDS = (
+    ("acid_halide", "acid chloride"), ("sulfonyl_halide", "sulfonyl chloride"), ("chloroformate", "chloroformate"),
+    ("anhydride", "anhydride"), ("isocyanate", "isocyanate"), ("isothiocyanate", "isothiocyanate"),
+    ("aldehyde", "aldehyde"), ("ketone", "ketone"), ("carboxylic_acid", "acid"), ("alkyl_halide", "alkyl halide"),
+    ("alkyl_sulfonate", "alkyl sulfonate"), ("quaternary_ammonium", "ammonium salt"), ("nitro", "nitro compound"),
+    ("aryl_halide", "aryl halide"), ("ester", "ester"),
+)
+_N_WORDS = {
+    "primary_amine": "amine", "secondary_amine": "amine", "tertiary_amine": "amine", "aryl_amine": "aniline",
+    "amide": "amide", "sulfonamide": "sulfonamide", "carbamate": "carbamate", "urea": "urea",
+}
+
+
+def _word_for(perception, role: str) -> str:
+    if role == "product":
+        return "product"
+    names = perception.group_names
+    for group, word in _GROUP_WORDS:
+        if group in names and not (group in ("ester", "aryl_halide") and perception.basic_nitrogens):
+            return word
+    for site in perception.nitrogens:
+        if site.kind in _N_WORDS:
+            return _N_WORDS[site.kind]
+    return "compound"
 
 
 def _basicity_sections(ctx: Context) -> dict:

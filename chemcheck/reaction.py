@@ -98,9 +98,18 @@ class Component:
     def charge(self) -> int:
         return sum(a.GetFormalCharge() for a in self.mol.GetAtoms())
 
+    word: str | None = None  # what the component is, for a label without a name ("amine", "acid chloride")
+
     @property
     def label(self) -> str:
-        """How messages name the component: the text as written, with the name if it differs."""
+        """How messages name the component, as a chemist does under a scheme: the name and the
+        compound number ("benzylamine (1)"), or what it is and its number ("amine 1"); the
+        SMILES stays in the components table. Without a number (a component built outside a
+        reaction), the text as written with its name."""
+        if self.number:
+            if self.name:
+                return f"{self.name} ({self.number})"
+            return f"{self.word or ('product' if self.role == 'product' else 'compound')} {self.number}"
         if self.name and self.name.casefold() != self.text.casefold():
             return f"{self.text} ({self.name})"
         return self.text

@@ -61,7 +61,8 @@ def test_report_carries_basicity_and_workup():
     d = chemcheck.check("CCCCN.CC(=O)Cl>Et3N>CCCCNC(C)=O").to_dict()
     kinds = {(b["component"], b["kind"]) for b in d["basicity"]}
     assert (0, "primary_amine") in kinds and (3, "amide") in kinds
-    assert any("CCCCN" in w["message"] for w in d["workup"])
+    # components are named by compound number and what they are, not by SMILES
+    assert any(w["message"].startswith("amine 1 ") for w in d["workup"])
 
 
 def test_reaches_agrees_with_the_bisection():

@@ -122,7 +122,7 @@ def test_a_base_among_the_reactants_leaves_as_its_salt():
     # Et3N written as a reactant takes up the HCl of the sulfonylation (common practice)
     b, got = missing("CCN(CC)CC.Cc1ccc(S(=O)(=O)Cl)cc1.NCCc1ccccc1>>Cc1ccc(cc1)S(=O)(=O)NCCc1ccccc1")
     assert b.balanced
-    assert got == [("the HCl salt of CCN(CC)CC (triethylamine)", 1, "product")]
+    assert got == [("the HCl salt of triethylamine (1)", 1, "product")]
     assert b.missing[0].formula == "C6H15N·HCl"
 
 

@@ -113,9 +113,9 @@ class Rule:
         return Finding(
             rule=self.id,
             severity=severity or self.severity,
-            message=message,
+            message=sentence_case(message),
             atoms=tuple(dict.fromkeys((int(c), int(a)) for c, a in atoms)),
-            fix=fix,
+            fix=sentence_case(fix) if fix else fix,
             references=tuple(references) or self.references,
             title=self.title,
         )
@@ -123,6 +123,14 @@ class Rule:
     @property
     def references(self) -> tuple[str, ...]:
         return _references_of(self.check)
+
+
+def sentence_case(text: str) -> str:
+    """A message that opens with a compound's label ("amine 1 is ...") starts with a capital, as
+    a sentence does; a label whose second letter is a capital (nBuLi, pH) is left as written."""
+    if text and text[0].islower() and not (len(text) > 1 and text[1].isupper()):
+        return text[0].upper() + text[1:]
+    return text
 
 
 _REGISTRY: dict[str, Rule] = {}
