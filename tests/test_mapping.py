@@ -266,9 +266,9 @@ def test_odd_inputs_never_raise(text):
 
 # ------------------------------------------------------------------ the patent dev set
 
-# Floors measured on this set (docs/mapping.md) less a margin, for the product route on every
-# 10th curated (A) row.
-A_FLOOR = 0.70
+# Measured on this set (docs/mapping.md): the product route agrees with the curated (A) maps
+# on 86 % of all 340 A rows; on every 10th A row the floor keeps a margin for the sample.
+A_FLOOR = 0.75
 
 
 def _dev_rows(prefix: str, every: int) -> list[dict]:

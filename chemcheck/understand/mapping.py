@@ -198,7 +198,7 @@ def _mcs_pairs(rxn: Reaction) -> list[tuple[Atom, Atom]]:
 # ---- minimal chemical distance
 
 
-def _settle(rxn: Reaction, pairs: list[tuple[Atom, Atom]]) -> list[tuple[Atom, Atom]]:
+def _settle(rxn: Reaction, pairs: list[tuple[Atom, Atom]], deadline: float = float("inf")) -> list[tuple[Atom, Atom]]:
     """Re-place each block of a mapper's answer (the atoms one origin component gives one
     product component) where it keeps every bond among them and changes fewest atoms.
 
@@ -215,7 +215,7 @@ def _settle(rxn: Reaction, pairs: list[tuple[Atom, Atom]]) -> list[tuple[Atom, A
     out: list[tuple[Atom, Atom]] = []
     for (oc, pc), block in blocks.items():
         better = None
-        if len(block) >= 3:
+        if 3 <= len(block) <= _MAX_BLOCK and time.monotonic() < deadline:
             try:
                 better = _replace_block(comps[oc].mol, comps[pc].mol, block)
             except (RuntimeError, ValueError):
@@ -226,9 +226,11 @@ def _settle(rxn: Reaction, pairs: list[tuple[Atom, Atom]]) -> list[tuple[Atom, A
 
 
 _MAX_PLACEMENTS = 2000
+_MAX_BLOCK = 40  # atoms in a block worth re-placing
+_MAX_TRIALS = 40  # exchanges tried per heteroatom
 
 
-def _swap_heteroatoms(rxn: Reaction, pairs, heavy, rounds: int = 4):
+def _swap_heteroatoms(rxn: Reaction, pairs, heavy, deadline: float = float("inf"), rounds: int = 4):
     """Exchange the origins of two product heteroatoms of one element, both from one origin
     component, when that removes bond changes: mappers sometimes take the ring N of a
     piperazinone for the N that was acylated, or the oxime O for the carbonyl O reduced."""
@@ -267,7 +269,9 @@ def _swap_heteroatoms(rxn: Reaction, pairs, heavy, rounds: int = 4):
                         trial = dict(fwd)
                         trial[p] = (ci, a.GetIdx())
                         trials.append(trial)
-            for trial in trials:
+            for trial in trials[:_MAX_TRIALS]:
+                if time.monotonic() >= deadline:
+                    return list(fwd.items())
                 cost = _distance(rxn, list(trial.items()), heavy)
                 if cost < best:
                     best, fwd, improved = cost, trial, True
@@ -293,7 +297,9 @@ def _replace_block(rmol: Chem.Mol, pmol: Chem.Mol, block: list[tuple[int, int]])
         or _order(pb) != _order(b)
     )
     current = (changed, _placement_cost(rmol, pmol, block))
-    if current == (0, 0):
+    if current[0] == 0:
+        # every bond among the block survives: only a symmetric re-placement could differ, and
+        # searching for it in a large molecule costs more than it gives
         return None
     # the block as a query: its atoms (elements) and its bonds (orders)
     query = Chem.RWMol()
@@ -451,7 +457,7 @@ def _indigo_map(rxn: Reaction, timeout_s: float, variants: int = VARIANTS) -> li
                 # and imidazoles drawn in another tautomer): give it Kekule structures
                 pieces = {c.index: _pieces(c, v, kekule=True) for c in (*reactants, *agents, *products)}
                 found = _indigo_once(rxn, order, others, products, pieces, heavy, deadline)
-            pairs = _swap_heteroatoms(rxn, _settle(rxn, found), heavy)
+            pairs = _swap_heteroatoms(rxn, _settle(rxn, found, deadline), heavy, deadline)
         except MapperFailed as exc:
             failure = failure or exc
             continue
