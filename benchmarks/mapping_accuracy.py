@@ -65,6 +65,8 @@ def load(limit: int | None = None, b_limit: int | None = None) -> list[dict]:
 
 def _spread(rows: list, n: int) -> list:
     """Every k-th row, to make n."""
+    if n <= 0:
+        return []
     if n >= len(rows):
         return rows
     step = len(rows) / n

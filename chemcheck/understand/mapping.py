@@ -247,7 +247,9 @@ def _swap_heteroatoms(rxn: Reaction, pairs, heavy, deadline: float = float("inf"
         at_centre |= {p for p, o in fwd.items() if any(c.atoms_before and o in c.atoms_before for c in centre.changes)}
         improved = False
         used = set(fwd.values())
-        givers = {o[0] for o in used}
+        # any reactant or agent may give the atom, when that removes bond changes: the N of
+        # ammonium acetate rather than the nitrile N of the cyanoborohydride beside it
+        givers = {o[0] for o in used} | {c.index for c in comps if c.role != "product"}
         for p in sorted(at_centre):
             if p not in fwd:
                 continue
@@ -262,7 +264,7 @@ def _swap_heteroatoms(rxn: Reaction, pairs, heavy, deadline: float = float("inf"
                         trial = dict(fwd)
                         trial[p], trial[q] = fwd[q], fwd[p]
                         trials.append(trial)
-            # an atom of the element that a contributing component has left unused
+            # an atom of the element left unused
             for ci in sorted(givers):
                 for a in comps[ci].mol.GetAtoms():
                     if a.GetAtomicNum() == el and (ci, a.GetIdx()) not in used:
@@ -457,6 +459,8 @@ def _indigo_map(rxn: Reaction, timeout_s: float, variants: int = VARIANTS) -> li
                 # and imidazoles drawn in another tautomer): give it Kekule structures
                 pieces = {c.index: _pieces(c, v, kekule=True) for c in (*reactants, *agents, *products)}
                 found = _indigo_once(rxn, order, others, products, pieces, heavy, deadline)
+            if not heavy <= {p for p, _ in found}:
+                found = _fill_open(rxn, found, reactants)
             pairs = _swap_heteroatoms(rxn, _settle(rxn, found, deadline), heavy, deadline)
         except MapperFailed as exc:
             failure = failure or exc
@@ -498,6 +502,57 @@ def _indigo_once(rxn, reactants, agents, products, pieces, heavy, deadline) -> l
             merged.append((p, o))
             used.add(o)
     return _complete(rxn, merged)
+
+
+def _fill_open(rxn: Reaction, pairs: list[tuple[Atom, Atom]], givers) -> list[tuple[Atom, Atom]]:
+    """Product atoms still open, group by connected group, placed on unused atoms of a giver
+    with the same elements and bonds; a component that gives nothing yet is tried first (the
+    methyl of iodomethane on a quaternary N, which mappers leave open when the charge changes)."""
+    comps = rxn.components
+    fwd = dict(pairs)
+    used = set(fwd.values())
+    for prod in rxn.products:
+        mol = prod.mol
+        open_atoms = {
+            a.GetIdx() for a in mol.GetAtoms()
+            if a.GetAtomicNum() > 1 and (prod.index, a.GetIdx()) not in fwd
+        }
+        while open_atoms:
+            seed = min(open_atoms)
+            group, stack = {seed}, [seed]
+            while stack:
+                for nb in mol.GetAtomWithIdx(stack.pop()).GetNeighbors():
+                    if nb.GetIdx() in open_atoms and nb.GetIdx() not in group:
+                        group.add(nb.GetIdx())
+                        stack.append(nb.GetIdx())
+            open_atoms -= group
+            order = sorted(group)
+            query = Chem.RWMol()
+            for i in order:
+                qa = Chem.Atom(mol.GetAtomWithIdx(i).GetAtomicNum())
+                qa.SetNoImplicit(True)
+                query.AddAtom(qa)
+            for b in mol.GetBonds():
+                i, j = b.GetBeginAtomIdx(), b.GetEndAtomIdx()
+                if i in group and j in group:
+                    bt = Chem.BondType.SINGLE if b.GetIsAromatic() else b.GetBondType()
+                    query.AddBond(order.index(i), order.index(j), bt)
+            q = query.GetMol()
+            q.UpdatePropertyCache(strict=False)
+            giving = {o[0] for o in used}
+            for comp in sorted(givers, key=lambda c: (c.index in giving, c.role != "reactant", c.index)):
+                try:
+                    matches = comp.mol.GetSubstructMatches(q, uniquify=False, maxMatches=200)
+                except RuntimeError:
+                    continue
+                hit = next((m for m in matches if all((comp.index, x) not in used for x in m)), None)
+                if hit is None:
+                    continue
+                for i, x in zip(order, hit):
+                    fwd[(prod.index, i)] = (comp.index, x)
+                    used.add((comp.index, x))
+                break
+    return list(fwd.items())
 
 
 def _complete(rxn: Reaction, pairs: list[tuple[Atom, Atom]]) -> list[tuple[Atom, Atom]]:
