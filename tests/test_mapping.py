@@ -88,6 +88,24 @@ def test_given_map_on_an_agent_makes_it_contributing():
     assert 2 not in amap.contributing  # dichloromethane gives nothing
 
 
+def test_charge_changes_of_a_quaternisation():
+    # Menshutkin reaction: trimethylamine + iodomethane -> tetramethylammonium iodide, mapped by
+    # hand; N goes from 0 to +1, I from 0 to -1 (Clayden ch. 15, common practice)
+    text = (
+        "[CH3:1][N:2]([CH3:3])[CH3:4].[CH3:5][I:6]>>[CH3:1][N+:2]([CH3:3])([CH3:4])[CH3:5].[I-:6]"
+    )
+    rxn, amap, centre = centre_of(text)
+    assert summary(rxn, centre) == {("formed", ("C", "N")), ("broken", ("C", "I"))}
+    (broken,) = centre.broken()
+    # both ends reach the product salt (one component), no longer bonded
+    (c1, a1), (c2, a2) = broken.atoms_after
+    assert c1 == c2 == 2
+    assert rxn.components[2].mol.GetBondBetweenAtoms(a1, a2) is None
+    assert dict(centre.charge_changes) == {(0, 1): 1, (1, 1): -1}
+    assert centre.leaving == ()  # the iodide reaches the product salt
+    assert not centre.h_changes
+
+
 def test_aromatic_bonds_count_one_and_a_half():
     # nitrobenzene -> aniline keeps the ring: no ring bond changes order
     text = (
@@ -248,9 +266,9 @@ def test_odd_inputs_never_raise(text):
 
 # ------------------------------------------------------------------ the patent dev set
 
-# Floors measured on this set (docs/mapping.md) less a margin, for the product route on every
-# 10th curated (A) row.
-A_FLOOR = 0.70
+# Measured on this set (docs/mapping.md): the product route agrees with the curated (A) maps
+# on 87 % of all 340 A rows; on every 10th A row the floor keeps a margin for the sample.
+A_FLOOR = 0.75
 
 
 def _dev_rows(prefix: str, every: int) -> list[dict]:

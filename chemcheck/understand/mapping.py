@@ -198,7 +198,7 @@ def _mcs_pairs(rxn: Reaction) -> list[tuple[Atom, Atom]]:
 # ---- minimal chemical distance
 
 
-def _settle(rxn: Reaction, pairs: list[tuple[Atom, Atom]]) -> list[tuple[Atom, Atom]]:
+def _settle(rxn: Reaction, pairs: list[tuple[Atom, Atom]], deadline: float = float("inf")) -> list[tuple[Atom, Atom]]:
     """Re-place each block of a mapper's answer (the atoms one origin component gives one
     product component) where it keeps every bond among them and changes fewest atoms.
 
@@ -215,7 +215,7 @@ def _settle(rxn: Reaction, pairs: list[tuple[Atom, Atom]]) -> list[tuple[Atom, A
     out: list[tuple[Atom, Atom]] = []
     for (oc, pc), block in blocks.items():
         better = None
-        if len(block) >= 3:
+        if 3 <= len(block) <= _MAX_BLOCK and time.monotonic() < deadline:
             try:
                 better = _replace_block(comps[oc].mol, comps[pc].mol, block)
             except (RuntimeError, ValueError):
@@ -226,9 +226,11 @@ def _settle(rxn: Reaction, pairs: list[tuple[Atom, Atom]]) -> list[tuple[Atom, A
 
 
 _MAX_PLACEMENTS = 2000
+_MAX_BLOCK = 40  # atoms in a block worth re-placing
+_MAX_TRIALS = 40  # exchanges tried per heteroatom
 
 
-def _swap_heteroatoms(rxn: Reaction, pairs, heavy, rounds: int = 4):
+def _swap_heteroatoms(rxn: Reaction, pairs, heavy, deadline: float = float("inf"), rounds: int = 4):
     """Exchange the origins of two product heteroatoms of one element, both from one origin
     component, when that removes bond changes: mappers sometimes take the ring N of a
     piperazinone for the N that was acylated, or the oxime O for the carbonyl O reduced."""
@@ -245,7 +247,9 @@ def _swap_heteroatoms(rxn: Reaction, pairs, heavy, rounds: int = 4):
         at_centre |= {p for p, o in fwd.items() if any(c.atoms_before and o in c.atoms_before for c in centre.changes)}
         improved = False
         used = set(fwd.values())
-        givers = {o[0] for o in used}
+        # any reactant or agent may give the atom, when that removes bond changes: the N of
+        # ammonium acetate rather than the nitrile N of the cyanoborohydride beside it
+        givers = {o[0] for o in used} | {c.index for c in comps if c.role != "product"}
         for p in sorted(at_centre):
             if p not in fwd:
                 continue
@@ -260,14 +264,16 @@ def _swap_heteroatoms(rxn: Reaction, pairs, heavy, rounds: int = 4):
                         trial = dict(fwd)
                         trial[p], trial[q] = fwd[q], fwd[p]
                         trials.append(trial)
-            # an atom of the element that a contributing component has left unused
+            # an atom of the element left unused
             for ci in sorted(givers):
                 for a in comps[ci].mol.GetAtoms():
                     if a.GetAtomicNum() == el and (ci, a.GetIdx()) not in used:
                         trial = dict(fwd)
                         trial[p] = (ci, a.GetIdx())
                         trials.append(trial)
-            for trial in trials:
+            for trial in trials[:_MAX_TRIALS]:
+                if time.monotonic() >= deadline:
+                    return list(fwd.items())
                 cost = _distance(rxn, list(trial.items()), heavy)
                 if cost < best:
                     best, fwd, improved = cost, trial, True
@@ -293,7 +299,9 @@ def _replace_block(rmol: Chem.Mol, pmol: Chem.Mol, block: list[tuple[int, int]])
         or _order(pb) != _order(b)
     )
     current = (changed, _placement_cost(rmol, pmol, block))
-    if current == (0, 0):
+    if current[0] == 0:
+        # every bond among the block survives: only a symmetric re-placement could differ, and
+        # searching for it in a large molecule costs more than it gives
         return None
     # the block as a query: its atoms (elements) and its bonds (orders)
     query = Chem.RWMol()
@@ -451,7 +459,9 @@ def _indigo_map(rxn: Reaction, timeout_s: float, variants: int = VARIANTS) -> li
                 # and imidazoles drawn in another tautomer): give it Kekule structures
                 pieces = {c.index: _pieces(c, v, kekule=True) for c in (*reactants, *agents, *products)}
                 found = _indigo_once(rxn, order, others, products, pieces, heavy, deadline)
-            pairs = _swap_heteroatoms(rxn, _settle(rxn, found), heavy)
+            if not heavy <= {p for p, _ in found}:
+                found = _fill_open(rxn, found, reactants)
+            pairs = _swap_heteroatoms(rxn, _settle(rxn, found, deadline), heavy, deadline)
         except MapperFailed as exc:
             failure = failure or exc
             continue
@@ -492,6 +502,57 @@ def _indigo_once(rxn, reactants, agents, products, pieces, heavy, deadline) -> l
             merged.append((p, o))
             used.add(o)
     return _complete(rxn, merged)
+
+
+def _fill_open(rxn: Reaction, pairs: list[tuple[Atom, Atom]], givers) -> list[tuple[Atom, Atom]]:
+    """Product atoms still open, group by connected group, placed on unused atoms of a giver
+    with the same elements and bonds; a component that gives nothing yet is tried first (the
+    methyl of iodomethane on a quaternary N, which mappers leave open when the charge changes)."""
+    comps = rxn.components
+    fwd = dict(pairs)
+    used = set(fwd.values())
+    for prod in rxn.products:
+        mol = prod.mol
+        open_atoms = {
+            a.GetIdx() for a in mol.GetAtoms()
+            if a.GetAtomicNum() > 1 and (prod.index, a.GetIdx()) not in fwd
+        }
+        while open_atoms:
+            seed = min(open_atoms)
+            group, stack = {seed}, [seed]
+            while stack:
+                for nb in mol.GetAtomWithIdx(stack.pop()).GetNeighbors():
+                    if nb.GetIdx() in open_atoms and nb.GetIdx() not in group:
+                        group.add(nb.GetIdx())
+                        stack.append(nb.GetIdx())
+            open_atoms -= group
+            order = sorted(group)
+            query = Chem.RWMol()
+            for i in order:
+                qa = Chem.Atom(mol.GetAtomWithIdx(i).GetAtomicNum())
+                qa.SetNoImplicit(True)
+                query.AddAtom(qa)
+            for b in mol.GetBonds():
+                i, j = b.GetBeginAtomIdx(), b.GetEndAtomIdx()
+                if i in group and j in group:
+                    bt = Chem.BondType.SINGLE if b.GetIsAromatic() else b.GetBondType()
+                    query.AddBond(order.index(i), order.index(j), bt)
+            q = query.GetMol()
+            q.UpdatePropertyCache(strict=False)
+            giving = {o[0] for o in used}
+            for comp in sorted(givers, key=lambda c: (c.index in giving, c.role != "reactant", c.index)):
+                try:
+                    matches = comp.mol.GetSubstructMatches(q, uniquify=False, maxMatches=200)
+                except RuntimeError:
+                    continue
+                hit = next((m for m in matches if all((comp.index, x) not in used for x in m)), None)
+                if hit is None:
+                    continue
+                for i, x in zip(order, hit):
+                    fwd[(prod.index, i)] = (comp.index, x)
+                    used.add((comp.index, x))
+                break
+    return list(fwd.items())
 
 
 def _complete(rxn: Reaction, pairs: list[tuple[Atom, Atom]]) -> list[tuple[Atom, Atom]]:
