@@ -22,6 +22,7 @@ protonated (the ammonium as a substituent through the same model), see ``Site.st
 from __future__ import annotations
 
 import math
+import warnings
 from dataclasses import dataclass, replace
 from functools import lru_cache
 
@@ -30,7 +31,8 @@ from rdkit import Chem
 from .. import _rdlog
 from . import tautomers
 from .._memo import Memo
-from ..errors import ParseError
+from .._warnings import ChemcheckWarning
+from ..errors import ChemcheckError, ParseError
 from ..molecule import read_smiles
 from ..perceive import canonical_key, nitrogen_sites
 from . import constants as K
@@ -290,8 +292,42 @@ _NOT_BASIC = "not basic in water (lone pair delocalised, or none)"
 
 
 def basic_sites(smiles_or_mol, *, max_sites: int = 8) -> list[Site]:
-    """One :class:`Site` per nitrogen of the molecule, with the pKa of its conjugate acid."""
+    """One :class:`Site` per nitrogen of the molecule, with the pKa of its conjugate acid.
+
+    Atom indices are 0-based (RDKit order of the molecule given). A bad input raises a
+    :class:`~chemcheck.errors.ParseError`; a molecule the models cannot read never raises: its
+    nitrogens come back without a value (``pka=None``, the method says why) and a
+    :class:`~chemcheck._warnings.ChemcheckWarning` says so.
+    """
     mol = _to_mol(smiles_or_mol)
+    try:
+        return _basic_sites(mol, max_sites)
+    except ChemcheckError:
+        raise
+    except Exception as exc:  # a gap in the models must not end a check: no value, said plainly
+        return _without_values(mol, exc)
+
+
+def _without_values(mol: Chem.Mol, exc: Exception) -> list[Site]:
+    smiles = Chem.MolToSmiles(mol)
+    warnings.warn(
+        f"basicity: no pKa estimate for the nitrogens of {smiles} (the models do not cover this "
+        f"structure: {type(exc).__name__})",
+        ChemcheckWarning,
+        stacklevel=3,
+    )
+    why = "no estimate: the basicity models do not cover this structure"
+    try:
+        perceived = nitrogen_sites(mol)
+    except Exception:  # perception itself failed: one entry per nitrogen atom
+        return [
+            Site(a.GetIdx(), "unknown", None, why, "none", None)
+            for a in mol.GetAtoms() if a.GetAtomicNum() == 7
+        ]
+    return [Site(s.atom_index, s.kind, None, why, "none", None) for s in perceived]
+
+
+def _basic_sites(mol: Chem.Mol, max_sites: int) -> list[Site]:
     if mol.GetNumAtoms() >= 400:
         return _compute(mol, max_sites)
     # the cache works in canonical atom order: map the indices back to the caller's molecule
@@ -512,6 +548,12 @@ def _add_hydration(mol: Chem.Mol, sites: dict[int, Site], hs: "hydration.Hydrati
     )
 
 
+# The lowest stepwise value reported: a further protonation would need more than concentrated
+# sulfuric acid (H0 about -12; common practice, from memory), so the model's number there is
+# meaningless and the step is left out.
+_LAST_STEP = -10.0
+
+
 def _stepwise(mol: Chem.Mol, sites: dict[int, Site], basic: list[Site]) -> None:
     """Order of protonation and the stepwise values, each step with the earlier sites protonated."""
     remaining = {s.atom_index for s in basic}
@@ -525,12 +567,21 @@ def _stepwise(mol: Chem.Mol, sites: dict[int, Site], basic: list[Site]) -> None:
             base = sites[idx]
             kind = base.kind
             fam = _family(mol, idx, kind)
-            now, _ = _model(current, idx, fam)
-            before, _ = _model(mol, idx, fam)
+            try:
+                now, _ = _model(current, idx, fam)
+                before, _ = _model(mol, idx, fam)
+            except (IndexError, KeyError, ValueError, StopIteration):
+                # the protonated species lost what the model reads at this site (an azole ring
+                # no longer aromatic once a ring N is protonated): no stepwise value for it
+                continue
             value = base.pka + (now - before)
             if best is None or value > best[1]:
                 best = (idx, value)
+        if best is None:
+            break
         idx, value = best
+        if value < _LAST_STEP:  # beyond the most acidic water: no further proton to speak of
+            break
         sites[idx] = replace(sites[idx], protonation_order=order, stepwise_pka=round(value, 2))
         current = _protonate(current, idx)
         remaining.discard(idx)

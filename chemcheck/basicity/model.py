@@ -706,10 +706,13 @@ def _locked_nhr(mol: Chem.Mol, ring: list[int], idx: int, site: int) -> bool:
     return False
 
 
-def _para_of(ring: list[int], idx: int) -> int:
-    """The ring atom para to ``idx`` in a six-membered ring."""
+def _para_of(ring: list[int], idx: int) -> int | None:
+    """The ring atom para to ``idx`` in a six-membered ring; None in a ring of another size
+    (a five-membered ring has no para position)."""
+    if len(ring) != 6:
+        return None
     pos = _ordered_positions(ring, idx)
-    return next(i for i in ring if pos[i] == 3)
+    return next((i for i in ring if pos[i] == 3), None)
 
 
 def _chain_sigma_star(mol: Chem.Mol, x: Chem.Atom, parent: Chem.Atom, ring: list[int]) -> float:
