@@ -36,6 +36,10 @@ _RELEASED = {
     "organolithium or Grignard reagent": "the alkane or arene", "metal amide base": "the free amine",
 }
 _BOROHYDRIDE = "[BH4-]"
+_WORKUP = (
+    "[$([OX1H1-]),$([SX4](=O)(=O)([OX1-])[OX1-]),$([CX3](=O)([#6])[OX1-]),$([NX4H4+]),$([Cl-,Br-]),"
+    "$([CX3](=O)([OX1-])[OX1-,OX2H1])]"
+)
 _ALCOHOL_SOLVENT = "[OX2H1][CX4]"
 _METAL = "[Li,Na,K,Mg,Ca,Zn,Al,Cs]"
 
@@ -126,21 +130,25 @@ def reactive_reagent_in_protic_solvent(ctx: Context):
     if not protic:
         return
     aprotic = [c for c in rxn.agents if _aprotic_solvent(c)]
+    # water beside work-up salts (Rochelle salt, NaOH, Na2SO4, NH4Cl, carbonates) is the quench
+    workup = any(_frag_has(c, _WORKUP) for c in rxn.agents)
+    only_water = all(w == "water" for _, w in protic)
     words = " and ".join(dict.fromkeys(c.label for c, _ in protic))
+    violent = [(c, _violent_reagent(c)) for c in pool]
+    violent = [(c, hit) for c, hit in violent if hit is not None]
+    if violent and not aprotic and not (only_water and workup):
+        names = ", ".join(f"{c.label} ({hit[0]})" for c, hit in violent)
+        released = " or ".join(dict.fromkeys(_RELEASED[hit[0]] for _, hit in violent))
+        yield r.finding(
+            f"{names} listed with {words} as the only solvent: water and alcohols destroy "
+            f"{'it' if len(violent) == 1 else 'them'} at once, releasing {released} and heat, before "
+            "the substrate can react. " + SAFETY,
+            atoms=[(c.index, hit[1]) for c, hit in violent],
+            fix="Run it in a dry ether (THF, Et2O) or hydrocarbon under nitrogen or argon and add water or the "
+            "alcohol only to quench, slowly and cold, at the end.",
+        )
     for comp in pool:
-        hit = _violent_reagent(comp)
-        if hit is not None:
-            if aprotic:
-                continue  # the water or alcohol is the quench of a reaction run in the aprotic solvent
-            what, atom = hit
-            yield r.finding(
-                f"{comp.label} ({what}) is listed with {words} as the only solvent: water and alcohols "
-                f"destroy it at once, releasing {_RELEASED[what]} and heat, "
-                "before it can react with the substrate. " + SAFETY,
-                atoms=[(comp.index, atom)],
-                fix="Run it in a dry ether (THF, Et2O) or hydrocarbon under nitrogen or argon and add water or the "
-                "alcohol only to quench, slowly and cold, at the end.",
-            )
+        if any(comp is c for c, _ in violent):
             continue
         bh4 = _frag_has(comp, _BOROHYDRIDE)
         if bh4 and any(w in ("alcohol", "water") for _, w in protic):
@@ -155,18 +163,21 @@ def reactive_reagent_in_protic_solvent(ctx: Context):
 
 # --------------------------------------------------------------------------- formed in the flask
 _NITROSATING = (
-    "[O-]N=O",  # nitrite salts
-    "[#6]ON=O",  # alkyl nitrites (tBuONO, isoamyl nitrite)
-    "[N+]=O",  # nitrosonium salts (NOBF4)
-    "[Cl,Br]N=O",  # nitrosyl halides
-    "[OH]N=O",  # nitrous acid
+    "[OX1-][NX2;+0]=[OX1]",  # nitrite salts (not a nitro group: its N is charged and has three bonds)
+    "[#6][OX2][NX2;+0]=[OX1]",  # alkyl nitrites (tBuONO, isoamyl nitrite)
+    "[$([NX2+]=[OX1]),$([NX1]#[OX1+]),$([NX1+]#[OX1])]",  # nitrosonium salts (NOBF4)
+    "[Cl,Br][NX2;+0]=[OX1]",  # nitrosyl halides
+    "[OX2H1][NX2;+0]=[OX1]",  # nitrous acid
 )
 _ACIDS = (
     ("a strong acid", "[$([Cl,Br,I;H1;X1;+0]),$([SX4](=O)(=O)[OX2H1]),$(C(=O)([OX2H1])C(F)(F)F),$([NX3+](=O)([O-])[OH])]"),
-    ("a carboxylic acid", "[CX3](=[OX1])[OX2H1]"),
+    ("a carboxylic acid", "[CX3](=[OX1])([#6,#1])[OX2H1]"),  # not bicarbonate
     ("an ammonium salt", "[#7+;!H0;!$([#7]~[OX1-])]"),
 )
 _AZIDE_ION = "[N-]=[N+]=[N-]"
+# a base in the same list (carbonate, bicarbonate, hydroxide, phosphate): a strong acid listed
+# with it is the work-up or is neutralised, not free acid standing over the azide or cyanide
+_BASE = "[$([CX3](=O)([OX1-])[OX1-,OX2H1]),$([OX1H1-]),$([PX4](=O)[OX1-])]"
 _ORGANIC_AZIDE = "[#6,Si,P,S][NX2]=[NX2+]=[NX1-]"
 _SILYL_AZIDE = "[Si][NX2]=[NX2+]=[NX1-]"
 _CYANIDE = "[C-]#N"
@@ -299,26 +310,33 @@ def hazardous_species_formed(ctx: Context):
             continue
         c, o, n = _azide_ratio(comp.mol)
         ratio = (c + o) / n if n else float("inf")
-        risky = ratio < 3
+        if ratio < 1:
+            verdict, sev = (
+                ": below 1, never to be isolated; make and use it in solution only (rule of thumb). ", "warning")
+        elif ratio < 3:
+            verdict, sev = (
+                ": between 1 and 3, it can be made and isolated but is stored cold, in solution (at most about "
+                "1 M) and in small amounts (rule of thumb). ", "info")
+        else:
+            verdict, sev = (": 3 or more, it can usually be isolated and stored (rule of thumb). ", "info")
         yield r.finding(
-            f"{comp.label} is an organic azide with (C + O)/N = {ratio:.1f}"
-            + (": below 3, too energetic to isolate or store in quantity (rule of thumb). "
-               if risky else " (3 or more: usually handled in small amounts, rule of thumb). ")
-            + "Organic azides can decompose explosively on heating, shock or with acid; keep them in solution, "
-            "cool and away from heavy metals and dichloromethane. " + SAFETY,
+            f"{comp.label} is an organic azide with (C + O)/N = {ratio:.1f}" + verdict
+            + "Organic azides can decompose explosively on heating, shock or with acid; keep them cool and away "
+            "from heavy metals and dichloromethane. " + SAFETY,
             atoms=[(comp.index, hits[0])],
             fix="Keep the azide in solution and the scale small, work behind a shield, and do not distil or "
-            "concentrate it to dryness" + ("; or carry it on without isolation." if risky else "."),
-            severity="warning" if risky else "info",
+            "concentrate it to dryness" + ("; carry it on without isolation." if ratio < 3 else "."),
+            severity=sev,
         )
         said.add("azide")
 
     # HN3 from an azide salt (or silyl azide) with an acid
     azide = _any(pool, _AZIDE_ION) or _any(pool, _SILYL_AZIDE)
     acid = _acid(pool)
+    based = _any(pool, _BASE) is not None
     if azide and acid:
         word, (acomp, _) = acid
-        strong = word != "an ammonium salt"
+        strong = word == "a strong acid" and not based
         yield r.finding(
             f"{azide[0].label} with {acomp.label} ({word}): hydrazoic acid (HN3) forms, toxic, volatile "
             "(bp 37 °C) and explosive; it collects in the headspace and condensers. " + SAFETY,
@@ -329,9 +347,11 @@ def hazardous_species_formed(ctx: Context):
         )
 
     # isocyanates: drawn, or formed (Curtius, phosgene-type reagent with an amine)
-    iso = _any(products, _ISOCYANATE) or _any(pool, _ISOCYANATE)
+    # an isocyanate added as a reagent is the subject of hazard-caution; here: drawn as a product,
+    # or formed on the way (Curtius, phosgene-type reagent with an amine)
+    iso = _any(products, _ISOCYANATE) if _any(pool, _ISOCYANATE) is None else None
     why = None
-    if iso is None:
+    if iso is None and _any(pool, _ISOCYANATE) is None:
         acyl_azide = _any(pool, _ACYL_AZIDE)
         phosgene = _any(pool, _PHOSGENE)
         if acyl_azide:
@@ -356,10 +376,13 @@ def hazardous_species_formed(ctx: Context):
         if acid:
             word, (acomp, _) = acid
             borohydride = bool(_frag_has(cyan[0], _CYANOBOROHYDRIDE))
-            mild = borohydride and word != "a strong acid"
+            # acetic acid buffers a cyanoborohydride reduction at pH 5-7; an ammonium salt or an
+            # acid beside a base in the list leaves a cyanide solution near or above pH 9
+            mild = (borohydride and word != "a strong acid") or word == "an ammonium salt" or based
             yield r.finding(
                 f"{cyan[0].label} with {acomp.label} ({word}): hydrogen cyanide (HCN) is released"
-                + (" in small amounts at the pH of a reductive amination (about 5–7)" if mild else "")
+                + (" in small amounts at the pH of a reductive amination (about 5–7)" if mild and borohydride else "")
+                + (" in small amounts (the acid is weak or buffered)" if mild and not borohydride else "")
                 + ". HCN is a fast-acting poison; work in a fume hood and quench the aqueous waste with basic bleach. "
                 + SAFETY,
                 atoms=[(cyan[0].index, cyan[1])],

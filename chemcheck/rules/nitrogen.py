@@ -1366,6 +1366,11 @@ _HAZARDS = (
         "under a fume hood.",
     ),
     (
+        "isocyanate",
+        "Isocyanate ({names}): toxic by inhalation and a respiratory sensitiser (asthma after one exposure); "
+        "handle it in a fume hood with suitable gloves and quench the excess with an alcohol or aqueous amine.",
+    ),
+    (
         "cyanoborohydride",
         "Cyanoborohydride ({names}): releases hydrogen with water and acids and hydrogen cyanide (HCN) with acid; "
         "use it in a fume hood and treat the aqueous waste with basic bleach.",
@@ -1415,6 +1420,8 @@ def _hazard_classes(ctx: Context, comp) -> set[str]:
             out.add("sulfonating")
         elif g.name == "diazonium":
             out.add("diazonium")
+        elif g.name == "isocyanate":
+            out.add("isocyanate")
         elif g.name == "azide":
             out.add("azide")
         elif g.name in ("hydrogen_halide", "sulfonic_acid", "perfluoro_acid", "nitric_acid") and not in_salt:
@@ -1613,7 +1620,7 @@ def hazard_caution(ctx: Context):
         with amines), phosgene, diphosgene and triphosgene, water-reactive Lewis acids (with the
         hydrogen halide each releases: HBr from FeBr3, HCl from AlCl3; not tin(II) chloride, a
         mild reductant), diazonium salts, azides, strong acids, oxidisers and nitrating agents,
-        hydride reagents, and cyanoborohydride (HCN with acid). One note per class, naming the
+        hydride reagents, cyanoborohydride (HCN with acid) and isocyanates. One note per class, naming the
         components. What forms in the flask is the subject of ``hazardous-species-formed``.
 
     Why it matters
