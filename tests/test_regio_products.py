@@ -181,3 +181,14 @@ def test_a_reduced_nitro_group_is_not_balanced_by_nitric_acid():
     # nitration still balances with water (March's Advanced Organic Chemistry, 7th ed., 11-2)
     nitration = chemcheck.check("c1ccccc1.O[N+](=O)[O-]>OS(=O)(=O)O>O=[N+]([O-])c1ccccc1")
     assert "H2O" in " ".join(f.message for f in nitration.by_rule("unbalanced-equation"))
+
+
+def test_hofmann_reasons_do_not_contradict_themselves():
+    # 2-bromo-2-methylbutane with KOtBu: the CH3 hydrogens are the accessible ones (Hofmann
+    # product 2-methylbut-1-ene major; Clayden, Greeves, Warren, 2nd ed., ch. 17). The more
+    # substituted alkene comes from the hindered CH2 and must not be called "most accessible".
+    cands = elimination.predict(Chem.MolFromSmiles("CCC(C)(C)Br"), "hofmann", "hindered base")
+    by = {c.smiles: c for c in cands}
+    assert by["C=C(C)CC"].label == "major" and "most accessible" in by["C=C(C)CC"].reason
+    assert "most accessible" not in by["CC=C(C)C"].reason
+    assert "more hindered" in by["CC=C(C)C"].reason
