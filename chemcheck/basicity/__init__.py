@@ -60,7 +60,10 @@ _FAMILY = {
 
 @dataclass(frozen=True)
 class Site:
-    atom_index: int
+    """One nitrogen and the pKa of its conjugate acid. ``atom_index`` is 0-based, the RDKit
+    atom index in the molecule given (the command-line table numbers atoms from 1)."""
+
+    atom_index: int  # 0-based
     kind: str
     pka: float | None
     method: str
@@ -554,16 +557,43 @@ def _add_hydration(mol: Chem.Mol, sites: dict[int, Site], hs: "hydration.Hydrati
 _LAST_STEP = -10.0
 
 
+def _measured_second(mol: Chem.Mol, first: int, kind: str) -> tuple[set[int], float] | None:
+    """For a compound of the reference table with a measured second pKa (piperazine, DABCO,
+    nicotine): the atoms of the second site and the published second pKa. It is the
+    macroscopic constant, the number a chemist looks up (DABCO 2.97; its microscopic value is
+    0.30 higher for the two equivalent protons of the dication)."""
+    fam = _family(mol, first, kind)
+    if fam is None:
+        return None
+    found = _anchor(mol, first, fam)
+    if found is None or not found[1] or found[0].pka2 is None or found[0].site2 is None:
+        return None
+    ref = found[0]
+    seconds: set[int] = set()
+    for match in mol.GetSubstructMatches(ref.mol, uniquify=False, maxMatches=50):
+        if match[ref.site] == first:
+            seconds.add(match[ref.site2])
+    if not seconds:
+        return None
+    return seconds, ref.pka2
+
+
 def _stepwise(mol: Chem.Mol, sites: dict[int, Site], basic: list[Site]) -> None:
     """Order of protonation and the stepwise values, each step with the earlier sites protonated."""
     remaining = {s.atom_index for s in basic}
     first = basic[0]
     remaining.discard(first.atom_index)
     current = _protonate(mol, first.atom_index)
+    measured = _measured_second(mol, first.atom_index, sites[first.atom_index].kind)
     order = 2
     while remaining and order <= 4:
         best = None
         for idx in remaining:
+            if order == 2 and measured is not None and idx in measured[0]:
+                value = measured[1]  # the measured second step of this very compound
+                if best is None or value > best[1]:
+                    best = (idx, value)
+                continue
             base = sites[idx]
             kind = base.kind
             fam = _family(mol, idx, kind)
