@@ -42,6 +42,9 @@ _HELPERS = (
     ("iodine", "I[I,Cl]"),
     ("a Lewis acid", "[B](F)(F)F"),
     ("samarium or titanium reagent", "[Sm,Ti]"),
+    # NaBH4 with a strong acid or TFA makes borane or an acyloxyborohydride that reduces amides
+    # and nitriles (N. Umino, T. Iwakuma, N. Itoh, Tetrahedron Lett. 1976, 17, 763)
+    ("a strong acid", "[$([Cl,Br,I;H1;X1;+0]),$([SX4](=O)(=O)[OX2H1]),$(C(=O)([OX2H1])C(F)(F)F)]"),
 )
 
 _NITRO_N = "[$([NX3+](=O)[O-]),$([NX3](=O)=O)]"
@@ -129,8 +132,9 @@ def reduction_beyond_reductant(ctx: Context):
         A product in which a nitro group, an amide or a nitrile of a reactant has become an
         amine, while the only reductant listed is NaBH4, LiBH4, NaBH(OAc)3 or NaBH3CN, with no
         hydrogen, no transition metal (Pd, Pt, Ni or Co salts that make a boride, Fe, Zn, Sn),
-        no stronger hydride (LiAlH4, borane, a silane), no hydrazine, dithionite, iodine or
-        BF3 to make the mixture stronger.
+        no stronger hydride (LiAlH4, borane, a silane), no hydrazine, dithionite, iodine, BF3
+        or strong acid (NaBH4 with TFA or H2SO4 makes borane or an acyloxyborohydride) to make
+        the mixture stronger.
 
     Why it matters
         These borohydrides reduce aldehydes, ketones, imines and iminium ions; NaBH(OAc)3 and
