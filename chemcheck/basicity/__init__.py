@@ -578,6 +578,26 @@ def _measured_second(mol: Chem.Mol, first: int, kind: str) -> tuple[set[int], fl
     return seconds, ref.pka2
 
 
+def _from_measured_second(mol: Chem.Mol, current: Chem.Mol, site: Site, second: float) -> Site:
+    """The second site's own value (the first site neutral) read back from the measured second
+    pKa: that value less the model's shift for the first site's charge (quinine's quinoline N:
+    4.13 measured with the quinuclidine protonated). A reference value of the site is kept."""
+    if site.method == "reference value":
+        return site
+    fam = _family(mol, site.atom_index, site.kind)
+    try:
+        now, _ = _model(current, site.atom_index, fam)
+        before, _ = _model(mol, site.atom_index, fam)
+    except (IndexError, KeyError, ValueError, StopIteration):
+        return site
+    return replace(
+        site,
+        pka=round(second - (now - before), 2),
+        method=f"measured second pKa ({second:.2f}) less the model's shift for the first site's charge ({now - before:+.2f})",
+        uncertainty=(site.uncertainty or 0.5),
+    )
+
+
 def _stepwise(mol: Chem.Mol, sites: dict[int, Site], basic: list[Site]) -> None:
     """Order of protonation and the stepwise values, each step with the earlier sites protonated."""
     remaining = {s.atom_index for s in basic}
@@ -613,6 +633,8 @@ def _stepwise(mol: Chem.Mol, sites: dict[int, Site], basic: list[Site]) -> None:
         if value < _LAST_STEP:  # beyond the most acidic water: no further proton to speak of
             break
         sites[idx] = replace(sites[idx], protonation_order=order, stepwise_pka=round(value, 2))
+        if order == 2 and measured is not None and idx in measured[0]:
+            sites[idx] = _from_measured_second(mol, current, sites[idx], value)
         current = _protonate(current, idx)
         remaining.discard(idx)
         order += 1
