@@ -100,7 +100,7 @@ def reactive_reagent_in_protic_solvent(ctx: Context):
         destroyed, with hydrogen or an alkane and heat). When an aprotic solvent is also listed,
         the water or alcohol is read as the quench and nothing is said. Sodium borohydride in
         methanol, ethanol or water is normal practice and gets an info note on the hydrogen it
-        slowly releases.
+        slowly releases (when no aprotic solvent is listed).
 
     Why it matters
         These reagents react with O-H bonds faster than with the substrate: LiAlH4 and NaH
@@ -151,7 +151,7 @@ def reactive_reagent_in_protic_solvent(ctx: Context):
         if any(comp is c for c, _ in violent):
             continue
         bh4 = _frag_has(comp, _BOROHYDRIDE)
-        if bh4 and any(w in ("alcohol", "water") for _, w in protic):
+        if bh4 and not aprotic and any(w in ("alcohol", "water") for _, w in protic):
             yield r.finding(
                 f"{comp.label} with {words}: normal practice. The borohydride decomposes slowly in the solvent, "
                 "releasing hydrogen; add it in portions, cold, in a vented vessel, and use a small excess. " + SAFETY,
