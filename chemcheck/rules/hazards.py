@@ -189,7 +189,10 @@ _ISOCYANATE = "[NX2]=[CX2]=[OX1]"
 _ACYL_AZIDE = "[CX3,PX4](=O)[NX2]=[NX2+]=[NX1-]"
 _PHOSGENE = "[$([CX3](=O)(Cl)Cl),$([CX3](=O)(Cl)OC(Cl)(Cl)Cl),$([CX3](=O)(OC(Cl)(Cl)Cl)OC(Cl)(Cl)Cl)]"
 _PRIMARY_ARYL_AMINE = "[NX3H2;+0]c"
-_SECONDARY_OR_TERTIARY = "[NX3;H0,H1;+0,+1;!$(N-[C,S,P]=[O,S,N]);!$(N-a);!$(N=*);!$(N#*);!$(N~[#7,#8])]([#6])[#6]"
+_SECONDARY_OR_TERTIARY = (
+    "[$([NX3;H0,H1;+0]),$([NX4+;H1,H2])"  # the free amine or its salt
+    ";!$(N-[C,S,P]=[O,S,N]);!$(N-a);!$(N~[#7,#8])]([CX4])[CX4]"
+)
 _SECONDARY_ARYL = "[NX3H1;+0]([CX4])c"
 
 
@@ -272,7 +275,8 @@ def hazardous_species_formed(ctx: Context):
     # diazonium salts formed from an aryl amine (one added is covered by hazard-caution)
     formed_diazonium = _any(products, _DIAZONIUM) if not _any(pool, _DIAZONIUM) else None
     aryl_nh2 = _any(rxn.reactants, _PRIMARY_ARYL_AMINE)
-    if formed_diazonium or (nitros and aryl_nh2 and _acid(pool)):
+    alkyl_nitrite = _any(pool, _NITROSATING[1]) is not None  # tBuONO diazotises without acid
+    if formed_diazonium or (nitros and aryl_nh2 and (_acid(pool) or alkyl_nitrite)):
         comp, atom = aryl_nh2 or formed_diazonium
         yield r.finding(
             f"A diazonium salt forms from {comp.label}: keep it at 0–5 °C, use it in solution straight away and "
