@@ -105,9 +105,23 @@ def ring_substituents(mol: Chem.Mol, ring: list[int]):
         for x in atom.GetNeighbors():
             if x.GetIdx() not in ring_set:
                 fused = mol.GetRingInfo().NumAtomRings(idx) > 1 and x.GetIsAromatic()
-                cls, name = ("fused", "fused ring") if fused else classify(mol, atom, x)
+                if fused and _pi_donor_ring_atom(x):
+                    # the N-H, N-R, O or S of a fused azole, pyrrole or lactam ring gives its lone
+                    # pair to this ring as an amino or alkoxy group would (benzimidazolone,
+                    # quinoxalinone, benzofuran)
+                    cls, name = classify(mol, atom, x)
+                else:
+                    cls, name = ("fused", "fused ring") if fused else classify(mol, atom, x)
                 subs.append((idx, cls, name, x.GetIdx()))
     return subs
+
+
+def _pi_donor_ring_atom(x: Chem.Atom) -> bool:
+    """A heteroatom of the fused ring whose lone pair is in its pi system (pyrrole-type N,
+    furan O, thiophene S), not a pyridine-type N."""
+    if x.GetAtomicNum() in (8, 16):
+        return True
+    return x.GetAtomicNum() == 7 and x.GetFormalCharge() == 0 and (x.GetDegree() == 3 or x.GetTotalNumHs() > 0)
 
 
 # Alpha positions of a benzo-fused aromatic ring (C1 of naphthalene, C5 and C8 of quinoline and
