@@ -137,12 +137,13 @@ def reactive_reagent_in_protic_solvent(ctx: Context):
     violent = [(c, _violent_reagent(c)) for c in pool]
     violent = [(c, hit) for c, hit in violent if hit is not None]
     if violent and not aprotic and not (only_water and workup):
-        names = ", ".join(f"{c.label} ({hit[0]})" for c, hit in violent)
+        names = " and ".join(dict.fromkeys(c.label for c, _ in violent))
+        kinds = " or ".join(dict.fromkeys(hit[0] for _, hit in violent))
         released = " or ".join(dict.fromkeys(_RELEASED[hit[0]] for _, hit in violent))
         yield r.finding(
-            f"{names} listed with {words} as the only solvent: water and alcohols destroy "
-            f"{'it' if len(violent) == 1 else 'them'} at once, releasing {released} and heat, before "
-            "the substrate can react. " + SAFETY,
+            f"{names} {'is' if len(violent) == 1 else 'are'} listed with {words} as the only solvent: water "
+            f"and alcohols destroy {'an' if kinds[0] in 'aeiou' else 'a'} {kinds} at once, releasing {released} "
+            "and heat, before the substrate can react. " + SAFETY,
             atoms=[(c.index, hit[1]) for c, hit in violent],
             fix="Run it in a dry ether (THF, Et2O) or hydrocarbon under nitrogen or argon and add water or the "
             "alcohol only to quench, slowly and cold, at the end.",
