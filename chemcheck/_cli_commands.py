@@ -32,7 +32,7 @@ def _run_pka(args) -> int:
     if not rows:
         print("no nitrogen")
         return 0
-    print(f"{'component':18s} {'atom':>4s}  {'kind':20s} {'pKa':>6s} {'±':>4s} {'step':>5s}  method; source")
+    print(f"{'component':18s} {'atom':>4s}  {'kind':20s} {'pKa':>6s} {'±':>4s} {'step':>5s}  method; source (atom numbers from 1)")
     for r in rows:
         pka = "—" if r["pka"] is None else f"{r['pka']:.2f}"
         unc = "" if r["uncertainty"] is None else f"{r['uncertainty']:.1f}"

@@ -39,6 +39,7 @@ BY_PRODUCTS: tuple[tuple[str, str], ...] = (
     ("NaI", "[Na+].[I-]"), ("KI", "[K+].[I-]"), ("AgI", "[Ag]I"), ("AgBr", "[Ag]Br"), ("AgCl", "[Ag]Cl"),
     ("H2SO4", "OS(=O)(=O)O"), ("HNO3", "O[N+](=O)[O-]"), ("benzyl alcohol", "OCc1ccccc1"),
     ("phenol", "Oc1ccccc1"), ("p-nitrophenol", "Oc1ccc(cc1)[N+](=O)[O-]"), ("HOBt", "On1nnc2ccccc21"),
+    ("N-hydroxysuccinimide", "O=C1CCC(=O)N1O"),
 )
 
 
@@ -79,6 +80,12 @@ _FORMED: dict[str, dict[str, tuple[str, ...]]] = {
     "CO": {"product": ("[#6](=[#8])[#6]=[#8]", "[CX3H1](=O)[#7,#8]", "[#6-]#[#8+]"), "reactant": ("[#6]=[#8]",)},
     "isobutylene": {"product": ("[CX4]([CH3])([CH3])([CH3])[#8,#7]",), "reactant": ()},  # Boc removal
     "H2": {"product": ("[#1-]", "[#5,#13,#14;!H0]", "[Li,Na,K,Mg,Ca,Zn]"), "reactant": ()},
+    # HNO3 leaves only from a nitrate (nitric acid, a nitrate ester or salt, an acyl nitrate): a
+    # C-nitro group that vanishes is reduced, not cut off as nitric acid
+    "HNO3": {
+        "product": ("[NX3+](=[OX1])([OX1-])[OX2,OX1-]", "[NX3](=[OX1])(=[OX1])[OX2]", "[NX2+](=O)=O"),
+        "reactant": ("[$([NX3+](=O)[O-]),$([NX3](=O)=O)]",),
+    },
 }
 
 

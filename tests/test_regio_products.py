@@ -144,3 +144,51 @@ def test_the_fix_says_how_to_make_the_product_drawn():
     assert "acylation" in f.fix and "Wolff-Kishner" in f.fix
     f = chemcheck.check(TRANS + ".CC[O-].[Na+]>CCO>CC1=CCCCC1").by_rule("elimination-regiochemistry")[0]
     assert "diastereomer" in f.fix and "trisubstituted" in f.message
+
+
+# Protecting-group products (Wuts, Greene's Protective Groups in Organic Synthesis, 5th ed.,
+# Wiley 2014, ch. 7): the reagent gives its carbamate or amide and leaves t-BuOH + CO2 (Boc2O),
+# HCl (Cbz-Cl, Fmoc-Cl), HOSu (Fmoc-OSu) or AcOH (Ac2O).
+PG_CASES = [
+    ("NCCO.CC(C)(C)OC(=O)OC(=O)OC(C)(C)C>C1CCOC1>CC(C)(C)OC(=O)NCCO", "CC(C)(C)OC(=O)NCCO", ("CO2", "tert-butanol")),
+    ("NCCO.O=C(Cl)OCc1ccccc1>CCN(CC)CC>O=C(NCCO)OCc1ccccc1", "O=C(NCCO)OCc1ccccc1", ("HCl",)),
+    ("NCCO.O=C(Cl)OCC1c2ccccc2-c2ccccc12>CCN(CC)CC>O=C(NCCO)OCC1c2ccccc2-c2ccccc12",
+     "O=C(NCCO)OCC1c2ccccc2-c2ccccc12", ("HCl",)),
+    ("NCCO.O=C(OCC1c2ccccc2-c2ccccc12)ON1C(=O)CCC1=O>CCN(CC)CC>O=C(NCCO)OCC1c2ccccc2-c2ccccc12",
+     "O=C(NCCO)OCC1c2ccccc2-c2ccccc12", ("N-hydroxysuccinimide",)),
+    ("NCCO.CC(=O)OC(C)=O>CCN(CC)CC>CC(=O)NCCO", "CC(=O)NCCO", ("Acetic acid",)),
+]
+
+
+def test_protecting_group_products_and_their_by_products():
+    for rxn, expected, by_products in PG_CASES:
+        report = chemcheck.check(rxn)
+        preds = report.to_dict().get("predictions") or []
+        major = [c["smiles"] for p in preds for c in p["candidates"] if c["label"] == "major"]
+        assert any(same_compound(m, expected) for m in major), (rxn, major)
+        notes = " ".join(f.message for f in report.by_rule("unbalanced-equation"))
+        for bp in by_products:
+            assert bp in notes, (rxn, notes)
+        assert "HNO3" not in notes
+
+
+def test_a_reduced_nitro_group_is_not_balanced_by_nitric_acid():
+    # nitrobenzene drawn as N-benzylaniline: the lost oxygens are reduced off, not HNO3
+    report = chemcheck.check(
+        "O=[N+]([O-])c1ccccc1.O=Cc1ccccc1>CC(=O)O[BH-](OC(C)=O)OC(C)=O.[Na+].ClCCCl>c1ccc(CNc2ccccc2)cc1"
+    )
+    assert "HNO3" not in " ".join(f.message for f in report.findings)
+    # nitration still balances with water (March's Advanced Organic Chemistry, 7th ed., 11-2)
+    nitration = chemcheck.check("c1ccccc1.O[N+](=O)[O-]>OS(=O)(=O)O>O=[N+]([O-])c1ccccc1")
+    assert "H2O" in " ".join(f.message for f in nitration.by_rule("unbalanced-equation"))
+
+
+def test_hofmann_reasons_do_not_contradict_themselves():
+    # 2-bromo-2-methylbutane with KOtBu: the CH3 hydrogens are the accessible ones (Hofmann
+    # product 2-methylbut-1-ene major; Clayden, Greeves, Warren, 2nd ed., ch. 17). The more
+    # substituted alkene comes from the hindered CH2 and must not be called "most accessible".
+    cands = elimination.predict(Chem.MolFromSmiles("CCC(C)(C)Br"), "hofmann", "hindered base")
+    by = {c.smiles: c for c in cands}
+    assert by["C=C(C)CC"].label == "major" and "most accessible" in by["C=C(C)CC"].reason
+    assert "most accessible" not in by["CC=C(C)C"].reason
+    assert "more hindered" in by["CC=C(C)C"].reason

@@ -22,6 +22,7 @@ protonated (the ammonium as a substituent through the same model), see ``Site.st
 from __future__ import annotations
 
 import math
+import warnings
 from dataclasses import dataclass, replace
 from functools import lru_cache
 
@@ -30,7 +31,8 @@ from rdkit import Chem
 from .. import _rdlog
 from . import tautomers
 from .._memo import Memo
-from ..errors import ParseError
+from .._warnings import ChemcheckWarning
+from ..errors import ChemcheckError, ParseError
 from ..molecule import read_smiles
 from ..perceive import canonical_key, nitrogen_sites
 from . import constants as K
@@ -58,7 +60,10 @@ _FAMILY = {
 
 @dataclass(frozen=True)
 class Site:
-    atom_index: int
+    """One nitrogen and the pKa of its conjugate acid. ``atom_index`` is 0-based, the RDKit
+    atom index in the molecule given (the command-line table numbers atoms from 1)."""
+
+    atom_index: int  # 0-based
     kind: str
     pka: float | None
     method: str
@@ -290,8 +295,42 @@ _NOT_BASIC = "not basic in water (lone pair delocalised, or none)"
 
 
 def basic_sites(smiles_or_mol, *, max_sites: int = 8) -> list[Site]:
-    """One :class:`Site` per nitrogen of the molecule, with the pKa of its conjugate acid."""
+    """One :class:`Site` per nitrogen of the molecule, with the pKa of its conjugate acid.
+
+    Atom indices are 0-based (RDKit order of the molecule given). A bad input raises a
+    :class:`~chemcheck.errors.ParseError`; a molecule the models cannot read never raises: its
+    nitrogens come back without a value (``pka=None``, the method says why) and a
+    :class:`~chemcheck._warnings.ChemcheckWarning` says so.
+    """
     mol = _to_mol(smiles_or_mol)
+    try:
+        return _basic_sites(mol, max_sites)
+    except ChemcheckError:
+        raise
+    except Exception as exc:  # a gap in the models must not end a check: no value, said plainly
+        return _without_values(mol, exc)
+
+
+def _without_values(mol: Chem.Mol, exc: Exception) -> list[Site]:
+    smiles = Chem.MolToSmiles(mol)
+    warnings.warn(
+        f"basicity: no pKa estimate for the nitrogens of {smiles} (the models do not cover this "
+        f"structure: {type(exc).__name__})",
+        ChemcheckWarning,
+        stacklevel=3,
+    )
+    why = "no estimate: the basicity models do not cover this structure"
+    try:
+        perceived = nitrogen_sites(mol)
+    except Exception:  # perception itself failed: one entry per nitrogen atom
+        return [
+            Site(a.GetIdx(), "unknown", None, why, "none", None)
+            for a in mol.GetAtoms() if a.GetAtomicNum() == 7
+        ]
+    return [Site(s.atom_index, s.kind, None, why, "none", None) for s in perceived]
+
+
+def _basic_sites(mol: Chem.Mol, max_sites: int) -> list[Site]:
     if mol.GetNumAtoms() >= 400:
         return _compute(mol, max_sites)
     # the cache works in canonical atom order: map the indices back to the caller's molecule
@@ -512,26 +551,90 @@ def _add_hydration(mol: Chem.Mol, sites: dict[int, Site], hs: "hydration.Hydrati
     )
 
 
+# The lowest stepwise value reported: a further protonation would need more than concentrated
+# sulfuric acid (H0 about -12; common practice, from memory), so the model's number there is
+# meaningless and the step is left out.
+_LAST_STEP = -10.0
+
+
+def _measured_second(mol: Chem.Mol, first: int, kind: str) -> tuple[set[int], float] | None:
+    """For a compound of the reference table with a measured second pKa (piperazine, DABCO,
+    nicotine): the atoms of the second site and the published second pKa. It is the
+    macroscopic constant, the number a chemist looks up (DABCO 2.97; its microscopic value is
+    0.30 higher for the two equivalent protons of the dication)."""
+    fam = _family(mol, first, kind)
+    if fam is None:
+        return None
+    found = _anchor(mol, first, fam)
+    if found is None or not found[1] or found[0].pka2 is None or found[0].site2 is None:
+        return None
+    ref = found[0]
+    seconds: set[int] = set()
+    for match in mol.GetSubstructMatches(ref.mol, uniquify=False, maxMatches=50):
+        if match[ref.site] == first:
+            seconds.add(match[ref.site2])
+    if not seconds:
+        return None
+    return seconds, ref.pka2
+
+
+def _from_measured_second(mol: Chem.Mol, current: Chem.Mol, site: Site, second: float) -> Site:
+    """The second site's own value (the first site neutral) read back from the measured second
+    pKa: that value less the model's shift for the first site's charge (quinine's quinoline N:
+    4.13 measured with the quinuclidine protonated). A reference value of the site is kept."""
+    if site.method == "reference value":
+        return site
+    fam = _family(mol, site.atom_index, site.kind)
+    try:
+        now, _ = _model(current, site.atom_index, fam)
+        before, _ = _model(mol, site.atom_index, fam)
+    except (IndexError, KeyError, ValueError, StopIteration):
+        return site
+    return replace(
+        site,
+        pka=round(second - (now - before), 2),
+        method=f"measured second pKa ({second:.2f}) less the model's shift for the first site's charge ({now - before:+.2f})",
+        uncertainty=(site.uncertainty or 0.5),
+    )
+
+
 def _stepwise(mol: Chem.Mol, sites: dict[int, Site], basic: list[Site]) -> None:
     """Order of protonation and the stepwise values, each step with the earlier sites protonated."""
     remaining = {s.atom_index for s in basic}
     first = basic[0]
     remaining.discard(first.atom_index)
     current = _protonate(mol, first.atom_index)
+    measured = _measured_second(mol, first.atom_index, sites[first.atom_index].kind)
     order = 2
     while remaining and order <= 4:
         best = None
         for idx in remaining:
+            if order == 2 and measured is not None and idx in measured[0]:
+                value = measured[1]  # the measured second step of this very compound
+                if best is None or value > best[1]:
+                    best = (idx, value)
+                continue
             base = sites[idx]
             kind = base.kind
             fam = _family(mol, idx, kind)
-            now, _ = _model(current, idx, fam)
-            before, _ = _model(mol, idx, fam)
+            try:
+                now, _ = _model(current, idx, fam)
+                before, _ = _model(mol, idx, fam)
+            except (IndexError, KeyError, ValueError, StopIteration):
+                # the protonated species lost what the model reads at this site (an azole ring
+                # no longer aromatic once a ring N is protonated): no stepwise value for it
+                continue
             value = base.pka + (now - before)
             if best is None or value > best[1]:
                 best = (idx, value)
+        if best is None:
+            break
         idx, value = best
+        if value < _LAST_STEP:  # beyond the most acidic water: no further proton to speak of
+            break
         sites[idx] = replace(sites[idx], protonation_order=order, stepwise_pka=round(value, 2))
+        if order == 2 and measured is not None and idx in measured[0]:
+            sites[idx] = _from_measured_second(mol, current, sites[idx], value)
         current = _protonate(current, idx)
         remaining.discard(idx)
         order += 1

@@ -27,6 +27,9 @@ HAMMETT: dict[str, tuple[float, float, float]] = {
     "CHX2": (0.30, 0.32, 0.32),  # CHF2 0.29 / 0.32, CHCl2 0.31 / 0.32 [HLT, from memory]
     "CH2X": (0.11, 0.12, 0.12),  # CH2Cl, CH2OH-type: weak acceptor
     "CH2N": (-0.03, -0.11, -0.11),
+    # an ammonium one carbon from the ring, CH2NMe3+ [HLT, from memory]: the protonated first
+    # site of nicotine seen from its pyridine N (5.44 - 5.9 x 0.43 = 2.9, measured pKa2 3.1)
+    "CH2N+": (0.40, 0.44, 0.44),
     "Ph": (0.06, -0.01, 0.02),
     "vinyl": (0.06, -0.04, -0.04),
     "ethynyl": (0.21, 0.23, 0.53),
@@ -81,6 +84,7 @@ ORTHO_ANILINE: dict[str, float] = {
     "CN": -3.6, "COOR": -2.4, "COR": -2.3, "CHO": -2.6, "COOH": -2.5, "CF3": -3.4, "Ph": -0.78,
     "SR": -1.15, "CONH2": -1.8, "NHAc": -0.9, "vinyl": -0.5, "fused": -0.68, "OPh": -1.2,
     "SO2R": -4.5, "SO2N": -4.0, "CH2X": -0.6, "CH2N": -0.2, "ethynyl": -1.6, "OAc": -1.5,
+    "CH2N+": -2.5,  # our estimate: CF3's increment scaled by sigma_m, less for the longer reach
     # our estimates, for want of measured parents: OCF3 as the acyloxy group of like sigma_m,
     # SCF3 between SR and CF3, SO2CF3 beyond SO2R as its sigma_m is
     "OCF3": -1.5, "SCF3": -2.3, "SO2CF3": -5.5,
@@ -92,6 +96,9 @@ ORTHO_PYRIDINE: dict[str, float] = {
     "OPh": -2.2, "F": -5.69, "Cl": -4.53, "Br": -4.54, "I": -3.4, "CN": -5.5, "COOR": -3.0,
     "COR": -2.6, "CHO": -3.4, "CF3": -5.8, "NO2": -7.8, "Ph": -0.77, "SR": -1.66,
     "vinyl": -0.27, "CONH2": -3.2, "NHAc": -1.1, "CH2X": -0.4, "CH2N": -0.3, "OH": -5.0,
+    # 2-(aminomethyl)pyridine, its pyridine N with the ammonium formed: 2.31 against 5.23
+    # (Perrin 1965, from memory)
+    "CH2N+": -2.9,
     "fused": -0.35, "ethynyl": -2.5, "OAc": -3.0, "SO2R": -6.0, "SO2N": -6.0,
     "SOR": -5.0,  # our estimate, below the sulfonyl group
     # our estimates, as for the aniline increments above
@@ -297,6 +304,14 @@ AMIDINE_RING5 = -1.0
 # A ring aza atom in a cyclic amidine held as an imine (1-alkyl-2-iminopyrimidine, ~11.7 from
 # memory, against 1-methyl-2-iminopyridine 13.0): sigma of the aza atom, times rho 4.5.
 IMINE_AZA = 0.4
+# Diaryl ketimines (the C=N of 1,4-benzodiazepines): pKa = PKA0 - RHO x (sum of the sigma of the
+# groups on both aryl rings, sigma_p for ortho and para, sigma_m for meta) - rho*(tertiary
+# amine) x sigma*(N-substituent). Fitted on diazepam 3.4 and medazepam 6.2 (Clarke's Analysis
+# of Drugs and Poisons, 4th ed., 2011, from memory); the other benzodiazepines of that table
+# (oxazepam 1.7, temazepam 1.6, lorazepam 1.3, nitrazepam 3.2, clonazepam 1.5, flunitrazepam
+# 1.8, prazepam 2.7) are the test (tests/test_basicity_steps.py). Our fit.
+DIARYL_IMINE_PKA0 = 5.92
+DIARYL_IMINE_RHO = 2.34
 IMINE_RING_N_DONOR = 0.5
 # rho of the N-alkyl and N,N-dialkyl anilines: 3.46 for N,N-dimethylanilines against pKa 5.07
 # [PDS, from memory], used for N-monoalkyl anilines too.

@@ -306,6 +306,10 @@ def classify_substituent(mol: Chem.Mol, ring_atom: Chem.Atom, x: Chem.Atom, ring
             return "CCl3"
         if n_f + n_cl >= 2:
             return "CHX2"  # CHF2, CHCl2
+        if any(n.GetAtomicNum() == 7 and n.GetFormalCharge() > 0 and not any(
+            y.GetAtomicNum() == 8 for y in n.GetNeighbors()
+        ) for n in nbrs):
+            return "CH2N+"  # an ammonium one carbon out: the first site protonated (nicotine)
         if any(n.GetAtomicNum() == 7 for n in nbrs):
             return "CH2N"
         if any(n.GetAtomicNum() in (8, 9, 16, 17, 35, 53) for n in nbrs):
@@ -591,7 +595,7 @@ def _hammett_sum(
             ortho += _amino_n_withdrawal(mol, ring, idx)
         if key in ("alkyl", "tBu"):
             sigma += _remote_inductive(mol, ring, idx)  # inductive: the same at every position
-        elif key in ("CH2X", "CH2N"):
+        elif key in ("CH2X", "CH2N", "CH2N+"):
             sigma += _remote_inductive(mol, ring, idx, beyond_first=True)
         if d == 1:
             term = ortho_table.get(key, default_ortho if key != "H" else 0.0)
@@ -706,10 +710,13 @@ def _locked_nhr(mol: Chem.Mol, ring: list[int], idx: int, site: int) -> bool:
     return False
 
 
-def _para_of(ring: list[int], idx: int) -> int:
-    """The ring atom para to ``idx`` in a six-membered ring."""
+def _para_of(ring: list[int], idx: int) -> int | None:
+    """The ring atom para to ``idx`` in a six-membered ring; None in a ring of another size
+    (a five-membered ring has no para position)."""
+    if len(ring) != 6:
+        return None
     pos = _ordered_positions(ring, idx)
-    return next(i for i in ring if pos[i] == 3)
+    return next((i for i in ring if pos[i] == 3), None)
 
 
 def _chain_sigma_star(mol: Chem.Mol, x: Chem.Atom, parent: Chem.Atom, ring: list[int]) -> float:
@@ -1203,7 +1210,7 @@ def azine(mol: Chem.Mol, n_idx: int) -> tuple[float, str]:
             sm, sp, spm = K.HAMMETT.get(key, (0.0, 0.0, 0.0))
             if key in ("alkyl", "tBu"):
                 sigma += _remote_inductive_of(mol, ring_set, atom, x)
-            elif key in ("CH2X", "CH2N"):
+            elif key in ("CH2X", "CH2N", "CH2N+"):
                 sigma += _remote_inductive_of(mol, ring_set, atom, x, beyond_first=True)
             if idx in adjacent:
                 if key in _PI_ACCEPTORS and key not in ("SR", "SH") and pyrrole_n:
@@ -1530,15 +1537,34 @@ def imine(mol: Chem.Mol, n_idx: int) -> tuple[float, str]:
     if any(x.GetIsAromatic() for x in n.GetNeighbors()):
         return 2.8, "class value, N-aryl imine"
     carbon = [b.GetOtherAtom(n) for b in n.GetBonds() if b.GetBondType() == Chem.BondType.DOUBLE][0]
-    conj = any(x.GetIsAromatic() for x in carbon.GetNeighbors())
+    aryls = [x for x in carbon.GetNeighbors() if x.GetIsAromatic()]
+    conj = bool(aryls)
     pka = 6.9 if conj else 9.0
+    label = "class value, imine, with the sigma* of an electron-withdrawing N-substituent"
+    if len(aryls) >= 2:
+        # a diaryl ketimine (the C=N of a 1,4-benzodiazepine): the groups on both aryl rings
+        # act through a Hammett term (an ortho group with its sigma_p), on top of the sigma*
+        # of the N-substituent below. K.DIARYL_IMINE_* were fitted on diazepam (3.4) and
+        # medazepam (6.2), whose N1 is an amide N in one and an amine N in the other
+        sigma = 0.0
+        for ipso in aryls:
+            ring = _ring_of(mol, ipso.GetIdx(), 6) or _ring_of(mol, ipso.GetIdx())
+            if not ring:
+                continue
+            for d, key, _idx in _ring_substituents_at(mol, ring, ipso.GetIdx()):
+                if key not in K.HAMMETT or key == "fused":
+                    continue
+                sm, sp, _ = K.HAMMETT[key]
+                sigma += sp if d in (1, 3) else sm
+        pka = K.DIARYL_IMINE_PKA0 - K.DIARYL_IMINE_RHO * sigma
+        label = f"diaryl ketimine model (Hammett on both aryl rings, sum sigma {sigma:+.2f}; sigma* of the N-substituent)"
     # an electron-withdrawing group on the imine N (the CH2-C(=O) of a 1,4-benzodiazepine)
     # through its sigma*, with the tertiary-amine rho* [PDS]: the iminium, like a tertiary
     # ammonium ion, has one N-H. Alkyl groups keep the class value.
     for x in n.GetNeighbors():
         if x.GetIdx() != carbon.GetIdx() and x.GetAtomicNum() == 6:
             pka -= K.TAFT_AMINE["tertiary"][1] * max(group_sigma_star(mol, x, n), 0.0)
-    return pka, "class value, imine, with the sigma* of an electron-withdrawing N-substituent"
+    return pka, label
 
 
 def statistical(n_equivalent: int) -> float:

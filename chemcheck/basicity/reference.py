@@ -198,6 +198,9 @@ REFERENCE: tuple[tuple[str, str, float, float | None, str, float], ...] = (
     ("1,8-diazabicyclo[5.4.0]undec-7-ene", "C1CCC2=[N:1]CCCN2CC1", 12.5, None, "literature range 11.5-13.5 (aqueous extrapolations)", 1.0),
     ("1,5-diazabicyclo[4.3.0]non-5-ene", "C1C[N:1]=C2CCCN2C1", 12.5, None, "literature range 11.5-13.5 (aqueous extrapolations)", 1.0),
     ("nicotine", "C[N:1]1CCC[C@H]1c1ccc[n:2]c1", 8.0, 3.1, P65, 0.1),
+    # a cinchona alkaloid (chiral base and phase-transfer catalyst scaffold): the quinuclidine
+    # N first, the quinoline N second (CRC, as recalled)
+    ("quinine", "COc1ccc2[n:2]ccc([C@@H](O)[C@@H]3C[C@@H]4CC[N:1]3C[C@@H]4C=C)c2c1", 8.52, 4.13, CRC, 0.1),
 )
 
 

@@ -142,6 +142,7 @@ class _StereoView:
         return emb.anti_alkene(alpha, leaving, beta, hs[0]) if len(hs) == 1 else None
 
 
+_BETA = {3: "a CH3", 2: "a CH2", 1: "a CH"}
 _DEGREE = {0: "unsubstituted", 1: "monosubstituted", 2: "disubstituted", 3: "trisubstituted", 4: "tetrasubstituted"}
 
 
@@ -182,7 +183,9 @@ def predict(mol: Chem.Mol, mode: str, why: str) -> list[Candidate]:
         for match in mol.GetSubstructMatches(patt):
             alpha, lg = match[0], match[1]
             in_ring = mol.GetAtomWithIdx(alpha).IsInRingSize(6)
-            for smi, a, b, nh in eliminate(mol, alpha, lg):
+            options = eliminate(mol, alpha, lg)
+            most_h = max((nh for *_, nh in options), default=0)
+            for smi, a, b, nh in options:
                 sub = _alkene_substitution(mol, a, b)
                 conj = _conjugated(mol, a, b)
                 if mode == "zaitsev":
@@ -190,7 +193,13 @@ def predict(mol: Chem.Mol, mode: str, why: str) -> list[Candidate]:
                     reason = f"{_DEGREE.get(sub, 'substituted')} alkene{', conjugated' if conj else ''}; {why}"
                 else:
                     score = -sub + (1.0 if conj else 0.0) + 0.05 * nh
-                    reason = f"{_DEGREE.get(sub, 'substituted')} alkene from the most accessible beta-H ({nh} H); {why}"
+                    # each alkene described by its own beta carbon: the most accessible one (the
+                    # most hydrogens) is the one the hindered base takes, the others are not
+                    where = (
+                        f"from the most accessible beta-H ({_BETA[nh]})" if nh == most_h
+                        else f"from a more hindered beta-H ({_BETA[nh]}), disfavoured"
+                    )
+                    reason = f"{_DEGREE.get(sub, 'substituted')} alkene {where}; {why}"
                 verdict = view.ring_verdict(alpha, lg, b) if in_ring else None
                 if verdict == "cis":
                     cands.append(Candidate(

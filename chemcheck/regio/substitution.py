@@ -20,6 +20,7 @@ from . import Candidate, attach, rank_labels
 
 # substituent class -> (strength for ortho/para, strength for meta, deactivating?)
 DIRECTORS = {
+    "fused": (0.0, 0.0, False),  # read as alpha/beta in predict(), not as ortho/para
     "strong_op": (3.0, 0.0, False),
     "moderate_op": (2.0, 0.0, False),
     "weak_op": (1.0, 0.0, False),
@@ -94,6 +95,9 @@ def _benzene_rings(mol: Chem.Mol) -> list[list[int]]:
 
 
 def ring_substituents(mol: Chem.Mol, ring: list[int]):
+    """(ring atom, class, name, substituent atom) for every group on the ring. An aromatic ring
+    fused on is listed as ``fused`` (class "fused"): it is no ortho/para director; it makes the
+    positions next to the fusion (alpha) the reactive ones (see ``predict``)."""
     ring_set = set(ring)
     subs = []
     for idx in ring:
@@ -101,9 +105,35 @@ def ring_substituents(mol: Chem.Mol, ring: list[int]):
         for x in atom.GetNeighbors():
             if x.GetIdx() not in ring_set:
                 fused = mol.GetRingInfo().NumAtomRings(idx) > 1 and x.GetIsAromatic()
-                cls, name = ("weak_op", "fused ring") if fused else classify(mol, atom, x)
+                if fused and _pi_donor_ring_atom(x):
+                    # the N-H, N-R, O or S of a fused azole, pyrrole or lactam ring gives its lone
+                    # pair to this ring as an amino or alkoxy group would (benzimidazolone,
+                    # quinoxalinone, benzofuran)
+                    cls, name = classify(mol, atom, x)
+                else:
+                    cls, name = ("fused", "fused ring") if fused else classify(mol, atom, x)
                 subs.append((idx, cls, name, x.GetIdx()))
     return subs
+
+
+def _pi_donor_ring_atom(x: Chem.Atom) -> bool:
+    """A heteroatom of the fused ring whose lone pair is in its pi system (pyrrole-type N,
+    furan O, thiophene S), not a pyridine-type N."""
+    if x.GetAtomicNum() in (8, 16):
+        return True
+    return x.GetAtomicNum() == 7 and x.GetFormalCharge() == 0 and (x.GetDegree() == 3 or x.GetTotalNumHs() > 0)
+
+
+# Alpha positions of a benzo-fused aromatic ring (C1 of naphthalene, C5 and C8 of quinoline and
+# isoquinoline) react first under kinetic control: the cation formed there keeps the other ring
+# aromatic in more of its resonance forms. Naphthalene nitration gives about 95:5 alpha:beta,
+# bromination and Friedel-Crafts acylation in CS2 alpha; quinoline and isoquinoline nitrate in
+# H2SO4 at C5 and C8, the protonated N-ring deactivated (Clayden, Greeves, Warren, Organic
+# Chemistry, 2nd ed., ch. 22; J. A. Joule, K. Mills, Heterocyclic Chemistry, 5th ed., Wiley
+# 2010, ch. 9). A bulky electrophile (an acylium complex in nitrobenzene, sulfonation at high
+# temperature) is held off by the peri hydrogen and goes beta.
+ALPHA_BONUS = 1.5
+ALPHA_BULKY = 0.3
 
 
 def deactivation(mol: Chem.Mol) -> list[tuple[int, str]]:
@@ -156,6 +186,14 @@ def predict(mol: Chem.Mol, electrophiles: str | list[Electrophile], klass: str, 
             ortho_to = 0
             for idx, cls, name, _x in subs:
                 d = _distance(ring, idx, pos)
+                if cls == "fused":
+                    if d == 1:
+                        score += ALPHA_BULKY if bulky else ALPHA_BONUS
+                        reasons.append(
+                            "alpha to the ring fusion (peri-crowded for this bulky electrophile)" if bulky
+                            else "alpha to the ring fusion (kinetic control: the other ring stays aromatic)"
+                        )
+                    continue
                 op, _m, _deact = DIRECTORS[cls]
                 if d in (1, 3):
                     rel = "ortho" if d == 1 else "para"
@@ -166,7 +204,7 @@ def predict(mol: Chem.Mol, electrophiles: str | list[Electrophile], klass: str, 
                         reasons.append(f"{rel} to {name}")
                     if d == 1:
                         ortho_to += 1
-                        if name in ("tBu", "NHC(=O)R", "N-bound Lewis acid", "fused ring") or bulky:
+                        if name in ("tBu", "NHC(=O)R", "N-bound Lewis acid") or bulky:
                             score -= 1.2
                             reasons.append("crowded ortho position")
                         else:

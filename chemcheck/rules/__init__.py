@@ -177,7 +177,7 @@ def parse_doc_sections(doc: str) -> dict[str, str]:
 
 
 def _load() -> None:
-    from . import balance, nitrogen, regio, stoich  # noqa: F401
+    from . import balance, hazards, nitrogen, reduction, regio, stoich  # noqa: F401
 
 
 def registry() -> dict[str, Rule]:

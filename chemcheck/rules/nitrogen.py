@@ -1116,7 +1116,7 @@ def _water_reactive(comp, g) -> bool:
     """A Lewis acid that water destroys: halides and alkoxides of the metals above, and any
     silyl reagent; not the metal triflates (Sc, Bi, In), which are used in water (common
     practice: S. Kobayashi's water-compatible Lewis acids)."""
-    if g.detail not in _WATER_REACTIVE_LA:
+    if g.detail not in _WATER_REACTIVE_LA or _tin_ii(comp, g):
         return False
     if g.detail == "Si":
         return True
@@ -1320,13 +1320,18 @@ _HAZARDS = (
     ),
     (
         "acid_chloride",
-        "Acid chloride or similar ({names}): corrosive, reacts with moisture and with amines releasing HCl; the "
-        "reaction with an amine is strongly exothermic, so add it slowly with cooling. Phosgene-type reagents are "
-        "highly toxic gases or their precursors.",
+        "Acid chloride or similar ({names}): corrosive, reacts with moisture and with amines releasing {gas}; the "
+        "reaction with an amine is strongly exothermic, so add it slowly with cooling.",
+    ),
+    (
+        "phosgene",
+        "Phosgene or a phosgene precursor ({names}): phosgene is a highly toxic gas, and diphosgene and "
+        "triphosgene release it on warming, with moisture and with nucleophiles; work in a well-ventilated fume "
+        "hood with a phosgene indicator, and quench the excess with aqueous ammonia or base.",
     ),
     (
         "lewis_acid",
-        "Water-reactive Lewis acid ({names}): reacts violently with water and moist air, releasing HCl or HF; weigh "
+        "Water-reactive Lewis acid ({names}): reacts violently with water and moist air, releasing {gas}; weigh "
         "it dry, add it in portions, and quench slowly into ice.",
     ),
     (
@@ -1357,10 +1362,42 @@ _HAZARDS = (
     ),
     (
         "hydride",
-        "Hydride reagent ({names}): reacts with water and acids releasing hydrogen (flammable); cyanoborohydride "
-        "releases HCN with acid; quench slowly under a fume hood.",
+        "Hydride reagent ({names}): reacts with water and acids releasing hydrogen (flammable); quench slowly "
+        "under a fume hood.",
+    ),
+    (
+        "isocyanate",
+        "Isocyanate ({names}): toxic by inhalation and a respiratory sensitiser (asthma after one exposure); "
+        "handle it in a fume hood with suitable gloves and quench the excess with an alcohol or aqueous amine.",
+    ),
+    (
+        "cyanoborohydride",
+        "Cyanoborohydride ({names}): releases hydrogen with water and acids and hydrogen cyanide (HCN) with acid; "
+        "use it in a fume hood and treat the aqueous waste with basic bleach.",
     ),
 )
+
+# the hydrogen halide a reagent releases with water or an amine, by the halogens it carries
+_HALIDE_GAS = {9: "HF", 17: "HCl", 35: "HBr", 53: "HI"}
+_PHOSGENE_TYPE = Chem.MolFromSmarts(
+    "[$([CX3](=O)([Cl,Br])[Cl,Br]),$([CX3](=O)(Cl)OC(Cl)(Cl)Cl),$([CX3](=O)(OC(Cl)(Cl)Cl)OC(Cl)(Cl)Cl)]"
+)
+_CYANOBOROHYDRIDE = Chem.MolFromSmarts("[B]C#N")
+
+
+def _gas(comps) -> str:
+    """'HCl', 'HBr', 'HCl or HF', ... from the halogens of the components (HCl when none)."""
+    gases = dict.fromkeys(
+        _HALIDE_GAS[a.GetAtomicNum()] for c in comps for a in c.mol.GetAtoms() if a.GetAtomicNum() in _HALIDE_GAS
+    )
+    return " or ".join(gases) or "HCl"
+
+
+def _tin_ii(comp, g) -> bool:
+    """Tin(II) chloride: a mild reductant, handled in ethanol, ethyl acetate or aqueous acid, not a
+    Lewis acid that water destroys (SnCl4 is; common practice)."""
+    metal = comp.mol.GetAtomWithIdx(g.centre)
+    return g.detail == "Sn" and metal.GetDegree() + metal.GetFormalCharge() == 2
 
 
 _ACIDIC_P_ANHYDRIDE = Chem.MolFromSmarts("[OX2H1][PX4](=O)[OX2][PX4]=O")
@@ -1376,13 +1413,15 @@ def _hazard_classes(ctx: Context, comp) -> set[str]:
             if c.GetTotalNumHs() == 3 or _is_activated_alkyl(ctx, comp) or g.name == "alkyl_sulfonate":
                 out.add("alkylating")
         elif g.name in ("acid_halide", "sulfonyl_halide", "chloroformate", "carbamoyl_chloride", "carbonyl_dihalide", "inorganic_acid_chloride", "sulfonic_anhydride"):
-            out.add("acid_chloride")
-        elif g.name == "lewis_acid" and _water_reactive(comp, g):
+            out.add("phosgene" if comp.mol.HasSubstructMatch(_PHOSGENE_TYPE) else "acid_chloride")
+        elif g.name == "lewis_acid" and _water_reactive(comp, g) and not _tin_ii(comp, g):
             out.add("lewis_acid")
         elif g.name in ("sulfur_trioxide", "chlorosulfonic_acid"):
             out.add("sulfonating")
         elif g.name == "diazonium":
             out.add("diazonium")
+        elif g.name == "isocyanate":
+            out.add("isocyanate")
         elif g.name == "azide":
             out.add("azide")
         elif g.name in ("hydrogen_halide", "sulfonic_acid", "perfluoro_acid", "nitric_acid") and not in_salt:
@@ -1390,7 +1429,10 @@ def _hazard_classes(ctx: Context, comp) -> set[str]:
         elif g.name in ("peroxide", "metal_oxo_oxidant", "nitrating_agent"):
             out.add("oxidiser")
         elif g.name in ("boron_hydride", "aluminium_hydride", "hydride_ion"):
-            out.add("hydride")
+            out.add("cyanoborohydride" if comp.mol.HasSubstructMatch(_CYANOBOROHYDRIDE) else "hydride")
+    if comp.mol.HasSubstructMatch(_PHOSGENE_TYPE):  # triphosgene is a carbonate to the catalog
+        out.discard("acid_chloride")
+        out.add("phosgene")
     if not in_salt and comp.mol.HasSubstructMatch(_ACIDIC_P_ANHYDRIDE):
         out.add("strong_acid")  # polyphosphoric acid, Eaton's reagent: corrosive, hot and viscous
     if "sulfonating" in out:
@@ -1574,9 +1616,12 @@ def hazard_caution(ctx: Context):
 
     What it flags
         Alkylating agents (methyl iodide, dimethyl sulfate, methyl triflate, benzyl halides),
-        acid chlorides and the HCl they release (and the exotherm of their reaction with
-        amines), water-reactive Lewis acids, diazonium salts, azides, strong acids, oxidisers and
-        nitrating agents, and hydride reagents. One note per class, naming the components.
+        acid chlorides and the hydrogen halide they release (and the exotherm of their reaction
+        with amines), phosgene, diphosgene and triphosgene, water-reactive Lewis acids (with the
+        hydrogen halide each releases: HBr from FeBr3, HCl from AlCl3; not tin(II) chloride, a
+        mild reductant), diazonium salts, azides, strong acids, oxidisers and nitrating agents,
+        hydride reagents, cyanoborohydride (HCN with acid) and isocyanates. One note per class, naming the
+        components. What forms in the flask is the subject of ``hazardous-species-formed``.
 
     Why it matters
         These are the reagents behind most bench incidents in amine chemistry: exposure to
@@ -1604,4 +1649,4 @@ def hazard_caution(ctx: Context):
         if not comps:
             continue
         names = ", ".join(dict.fromkeys(c.label for c in comps))
-        yield r.finding(text.format(names=names) + " " + SAFETY, atoms=[], fix=SAFETY)
+        yield r.finding(text.format(names=names, gas=_gas(comps)) + " " + SAFETY, atoms=[], fix=SAFETY)

@@ -4,12 +4,15 @@ report, also when no product is drawn."""
 
 from __future__ import annotations
 
+from types import SimpleNamespace
+
 from rdkit import Chem
 
 from .. import _rdlog
 from ..regio import Candidate, Prediction, attach, canonical, elimination, rank_labels, same_compound, substitution
 from ..basicity import _protonate
 from . import Context, rule
+from ..perceive import GroupMatch
 from ._support import ACYLATING, changed_nitrogens, family_is, salt_info
 
 _SMALL_BASES = {"alkoxide", "hydroxide"}
@@ -176,18 +179,45 @@ def elimination_regiochemistry(ctx: Context):
             yield f
 
 
+# an activated ester or carbonate of N-hydroxysuccinimide, HOBt or a similar N-hydroxy compound
+# (Fmoc-OSu, Boc-OSu, NHS esters): an acylating agent the catalog files as an ester
+_ACTIVE_ESTER = Chem.MolFromSmarts("[CX3](=[OX1])[OX2][#7]")
+
+
+def _leaving_rank(mol: Chem.Mol, centre: int, n: Chem.Atom) -> int:
+    """How readily the bond from the acyl centre to ``n`` breaks: 0 a halide; 1 an oxygen that
+    leads on to another acyl, sulfonyl or phosphoryl group or to nitrogen (the anhydride O of
+    Ac2O and Boc2O, the N-oxy of an OSu or OBt ester); 2 an alkoxy or aryloxy oxygen, which stays
+    (the tert-butoxy of Boc2O: Boc-NHR with t-BuOH and CO2, not t-BuOC(O)OC(O)-NHR)."""
+    if n.GetAtomicNum() != 8:
+        return 0
+    for y in n.GetNeighbors():
+        if y.GetIdx() == centre:
+            continue
+        if y.GetAtomicNum() == 7:
+            return 1
+        if y.GetAtomicNum() in (6, 15, 16) and any(
+            b.GetBondType() == Chem.BondType.DOUBLE and b.GetOtherAtom(y).GetAtomicNum() in (8, 16)
+            for b in y.GetBonds()
+        ):
+            return 1
+    return 2
+
+
 def _acyl_fragment(comp, group) -> tuple[Chem.Mol, int] | None:
     """The acyl (or sulfonyl) part of an acylating agent, without its leaving group, and the
     index of the atom that bonds to the nucleophile."""
     frag = Chem.RWMol(comp.mol)
     centre = group.centre
-    leaving = [
-        n.GetIdx() for n in frag.GetAtomWithIdx(centre).GetNeighbors()
-        if n.GetAtomicNum() in (9, 17, 35, 53) or (n.GetAtomicNum() == 8 and n.GetDegree() == 2)
-    ]
-    if not leaving:
+    leaving = sorted(
+        (
+            (_leaving_rank(frag, centre, n), n.GetIdx()) for n in frag.GetAtomWithIdx(centre).GetNeighbors()
+            if n.GetAtomicNum() in (9, 17, 35, 53) or (n.GetAtomicNum() == 8 and n.GetDegree() == 2)
+        ),
+    )
+    if not leaving or leaving[0][0] > 1:
         return None
-    frag.RemoveBond(centre, leaving[0])
+    frag.RemoveBond(centre, leaving[0][1])
     with _rdlog.captured():
         m = frag.GetMol()
         m.UpdatePropertyCache(strict=False)
@@ -808,6 +838,8 @@ def acylation_chemoselectivity(ctx: Context):
     if not rxn.products:
         return
     acyl = [c for c in rxn.reactants if ctx.perception(c).has(*ACYLATING, "dicarbonate")]
+    active = [c for c in rxn.reactants if c not in acyl and c.mol.HasSubstructMatch(_ACTIVE_ESTER)]
+    acyl += active
     if not acyl:
         return
     if any(ctx.perception(c).has("hydrogen_halide", "sulfonic_acid", "perfluoro_acid") for c in rxn.reactants + rxn.agents):
@@ -818,6 +850,9 @@ def acylation_chemoselectivity(ctx: Context):
     o_changes = new_bonds_at(rxn, 8)
     agent = acyl[0]
     groups = ctx.perception(agent).groups_named(*ACYLATING, "dicarbonate")
+    if not groups and agent in active:
+        centre = agent.mol.GetSubstructMatch(_ACTIVE_ESTER)[0]
+        groups = [GroupMatch("active_ester", (centre,), "")]
     frag = _acyl_fragment(agent, groups[0]) if groups else None
     for sub in rxn.reactants:
         if sub.index in {a.index for a in acyl} or salt_info(ctx, sub)[0]:
@@ -842,11 +877,21 @@ def acylation_chemoselectivity(ctx: Context):
                 if smi:
                     cands.append(Candidate(smi, 0, "", f"acylation at the {'phenol' if phenol else 'alcohol'} O", -2.0 if phenol else -3.0, atoms=(o,)))
             ranked = rank_labels(cands, minor_gap=1.0, none_gap=6.0)
+            drawn_cand = None
             if ranked:
-                _drawn_match(ctx, ranked)
+                drawn_cand, _ = _drawn_match(ctx, ranked)
                 _predictions(ctx).append(Prediction("N-acylation (chemoselectivity)", f"{agent.label} with {sub.label}", sub.index, ranked))
+        else:
+            drawn_cand = None
         drawn_n = [nb for nb in n_changes if nb.reactant == sub.index]
         drawn_o = [ob for ob in o_changes if ob.reactant == sub.index and sub.mol.GetAtomWithIdx(ob.reactant_atom).GetTotalNumHs() > 0]
+        if (
+            not drawn_n and not drawn_o and drawn_cand is not None and drawn_cand.atoms
+            and sub.mol.GetAtomWithIdx(drawn_cand.atoms[0]).GetAtomicNum() == 8
+        ):
+            # the atom mapping gave the new C-O bond to the reagent's own oxygen (Boc2O, OSu
+            # carbonates); the drawn product is still the O-acyl candidate
+            drawn_o = [SimpleNamespace(reactant=sub.index, reactant_atom=drawn_cand.atoms[0])]
         if drawn_o and not drawn_n:
             o = sub.mol.GetAtomWithIdx(drawn_o[0].reactant_atom)
             what = "phenol" if any(x.GetIsAromatic() for x in o.GetNeighbors()) else "alcohol"
