@@ -182,6 +182,32 @@ def _is_solid(comp: Component) -> tuple[bool, float | None]:
     return False, None
 
 
+# Groups that react with water (hydrolysis, or quenching): a hydrate's water consumes them.
+MOISTURE_SENSITIVE = {
+    "acid_halide", "chloroformate", "carbamoyl_chloride", "carbonyl_dihalide", "anhydride", "dicarbonate",
+    "sulfonic_anhydride", "sulfonyl_halide", "inorganic_acid_chloride", "isocyanate", "carbodiimide",
+    "hydride_ion", "metal_amide", "organometallic_base", "aluminium_hydride", "chlorosulfonic_acid",
+    "sulfuryl_chloride",
+}
+
+
+def hydrate_finding(base: str, hydrate: str, comp: Component):
+    """The note for an amount keyed by a hydrate of a component drawn anhydrous."""
+    from .findings import Finding
+
+    n = water_of_hydration(comp)
+    return Finding(
+        rule="weighed-as-hydrate",
+        severity="info",
+        title="Amount given for the hydrate of a component",
+        message=f"The amount is given for {hydrate}, the hydrate of {base} as drawn in the reaction ({n} H2O): "
+        f"the check reads the component as the hydrate ({comp.formula}, {comp.mw:.2f} g/mol), so the mass weighed "
+        "converts to moles of the hydrate, and its water is counted beside it.",
+        atoms=(),
+        fix=f"Draw {hydrate} in the reaction, or give the amount of anhydrous {base}.",
+    )
+
+
 def water_of_hydration(comp: Component) -> int:
     """How many water fragments a component carries beside its other fragments (a hydrate
     written ``C1CNCCN1.O.O.O.O.O.O``); 0 for anything else, and for water itself."""
@@ -326,6 +352,12 @@ def compute(reaction: Reaction, amounts: dict[str, str], coefficients: dict[int,
                 row.read_as = f"{a.value:.4g} equiv"
         elif row.mmol is not None and ref_mmol and row.component.kind != "solvent":
             row.equiv = row.mmol / ref_mmol
+    for row in rows:
+        n = water_of_hydration(row.component)
+        if n and row.mmol is not None:
+            row.water_mmol = n * row.mmol
+            if row.read_as:
+                row.read_as += f" (with {fmt_moles(row.water_mmol)} of water of hydration, {fmt_mass(row.water_mmol * 18.015 / 1000)})"
     if limiting is None:
         cands = [r for r in rows if r.component.role == "reactant" and r.mmol is not None]
         limiting = min(cands, key=lambda r: r.mmol / coeff[r.component.index], default=None)

@@ -226,7 +226,7 @@ def test_adiabatic_rise_hand_calculation():
     big = scale(r, 1.0, dh_kj_mol=-55.0)
     t = big.extra["scale"]["thermal"]
     assert t["dT_ad_K"] == pytest.approx(1.31, abs=0.1)
-    assert t["reaches_boiling"] is False
+    assert t["reaches_boiling"] == "no" and big.scale_info.thermal["reaches_boiling"] is False
 
 
 def test_scale_needs_amounts_and_one_target():
