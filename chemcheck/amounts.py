@@ -259,7 +259,7 @@ def _head_kind(num: float, unit: str, key, whole) -> tuple[str, float]:
 def _unknown_unit(u: str, qualifier: bool = False) -> str:
     hint = _HINTS.get(u) or _HINTS.get(u.strip("."))
     allowed = (
-        "M, mM, wt%, g/mL, a purity in %, or equiv" if qualifier else "mg, g, kg, µL, mL, L, µmol, mmol, mol or equiv"
+        "M, mM, wt%, g/mL, a purity in %, or equiv" if qualifier else "µg, mg, g, kg, µL, mL, L, µmol, mmol, mol or equiv"
     )
     msg = f"unknown unit '{u}' (use {allowed}; units are case-sensitive)"
     if hint:
@@ -275,7 +275,7 @@ def _positive(v: float, what: str, key, whole) -> float:
     if v > 1e9:
         raise AmountError(f"the {what} is implausibly large", key=key, text=whole)
     low = _MINIMUM.get(what)
-    if low is not None and v < low[0]:
+    if low is not None and v < low[0] * (1 - 1e-9):  # the minimum itself is allowed
         raise AmountError(f"the {what} is below {low[1]}: too small to weigh or measure (a typing slip?)", key=key, text=whole)
     return v
 
