@@ -12,7 +12,7 @@ Units are case-sensitive (``mM`` millimolar is not ``mm``): ``µg mg g kg``, ``�
 ``µmol umol mmol mol``, and ``equiv`` (``eq``, ``equiv.``, ``eq.``) as a ratio of the
 chemcheck's own, not a pint unit. The micro sign (U+00B5) and the Greek mu (U+03BC) are both
 accepted, everywhere. Digits are ASCII 0-9 (other scripts' digits are refused with a message).
-Amounts below a physical minimum (1 ng, 1 nL, 1 pmol) are refused, so that no infinite or
+Amounts below a physical minimum (1 pg, 1 pL, 1 fmol) are refused, so that no infinite or
 undefined number reaches the results. Every value is echoed back as it was read.
 
 ``validate_amounts`` checks the keys and values of an amounts dict; ``add_amount`` adds one
@@ -45,7 +45,7 @@ _MOLARITY = {
 }
 # Physical minimums (in g, mL, mmol): below them the number is a typing slip, and dividing by it
 # would overflow to infinity.
-_MINIMUM = {"mass": (1e-9, "1 ng"), "volume": (1e-6, "1 nL"), "amount": (1e-9, "1 pmol"),
+_MINIMUM = {"mass": (1e-12, "1 pg"), "volume": (1e-9, "1 pL"), "amount": (1e-12, "1 fmol"),
             "equivalents": (1e-6, "0.000001 equiv"), "molarity": (1e-9, "1 nM"), "density": (0.05, "0.05 g/mL")}
 _DENSITY = {"g/mL": "gram/milliliter", "g/cm3": "gram/centimeter**3", "g/cm^3": "gram/centimeter**3", "kg/L": "kilogram/liter", "g/L": "gram/liter"}
 

@@ -103,14 +103,22 @@ class Properties:
         return None
 
     def density(self, t_c: float = 25.0) -> Value | None:
-        """The liquid density at ``t_c`` (°C): the tabulated value at 20 or 25 °C, or a linear
-        interpolation between them."""
+        """The liquid density at ``t_c`` (°C): the value at 20 or 25 °C, else the line through
+        both (or, with only one, a typical expansion of 0.12 %/K). Meant for 0-50 °C."""
         d20, d25 = self.density_20, self.density_25
-        if abs(t_c - 25.0) < 1e-9 or d20 is None:
-            return d25 if abs(t_c - 25.0) < 1e-9 or d25 is None else _shift(d25, None, t_c)
-        if abs(t_c - 20.0) < 1e-9 or d25 is None:
-            return d20 if abs(t_c - 20.0) < 1e-9 or d25 is None else d20
-        return _shift(d25, d20, t_c)
+        for t, d in ((20.0, d20), (25.0, d25)):
+            if d is not None and abs(t_c - t) < 1e-9:
+                return d
+        if d20 is None and d25 is None:
+            return None
+        if d20 is not None and d25 is not None:
+            slope = (d25.value - d20.value) / 5.0
+            base, t0 = d25, 25.0
+        else:
+            base, t0 = (d25, 25.0) if d25 is not None else (d20, 20.0)
+            slope = -0.0012 * base.value
+        v = base.value + slope * (t_c - t0)
+        return Value(v, "g/mL", f"{base.source}; carried to {t_c:g} °C", base.method, base.uncertainty, base.measured)
 
     def to_dict(self) -> dict:
         def d(v):
@@ -129,12 +137,6 @@ class Properties:
             "curated": self.curated,
             "notes": list(self.notes),
         }
-
-
-def _shift(d25: Value, d20: Value | None, t_c: float) -> Value:
-    slope = (d25.value - d20.value) / 5.0 if d20 is not None else -0.0012 * d25.value
-    v = d25.value + slope * (t_c - 25.0)
-    return Value(v, "g/mL", f"{d25.source}, interpolated to {t_c:g} °C", d25.method, d25.uncertainty, d25.measured)
 
 
 # --------------------------------------------------------------------------------------------

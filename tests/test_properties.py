@@ -339,7 +339,7 @@ def test_non_ascii_digits_are_refused(text):
         parse_amount(text)
 
 
-@pytest.mark.parametrize("text", ["1e-300 g", "1e-12 mL", "1e-20 mmol", "1 g, 1e-9 %", "1 mL, 1e-30 M", "1 mL, 1e-300 g/mL"])
+@pytest.mark.parametrize("text", ["1e-300 g", "1e-15 mL", "1e-20 mmol", "1e-13 g", "1 g, 1e-9 %", "1 mL, 1e-30 M", "1 mL, 1e-300 g/mL"])
 def test_amounts_below_a_physical_minimum_are_refused(text):
     from chemcheck.amounts import parse_amount
 
@@ -348,7 +348,7 @@ def test_amounts_below_a_physical_minimum_are_refused(text):
 
 
 def test_no_infinity_or_nan_reaches_json():
-    r = chemcheck.check("CCN.CC(=O)Cl>>CCNC(C)=O", {"CCN": "0.000001 mg", "CC(=O)Cl": "1e6 equiv"})
+    r = chemcheck.check("CCN.CC(=O)Cl>>CCNC(C)=O", {"CCN": "0.000000001 mg", "CC(=O)Cl": "1e6 equiv"})
     text = r.to_json(allow_nan=False)
     assert "Infinity" not in text and "NaN" not in text
 
