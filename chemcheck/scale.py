@@ -105,6 +105,7 @@ def charge_volumes(st) -> tuple[float, list[str]]:
     measured; neat liquids given by mass, mmol or equiv from their density; solids at an
     assumed density."""
     from .stoichiometry import _props
+    from .units import fmt_volume
 
     total = 0.0
     solids = liquids = 0.0
@@ -128,9 +129,9 @@ def charge_volumes(st) -> tuple[float, list[str]]:
             total += m / _SOLID_DENSITY
             solids += m / _SOLID_DENSITY
     if liquids:
-        notes.append(f"neat liquids given by mass or amount counted from their density ({liquids:.4g} mL)")
+        notes.append(f"neat liquids given by mass or amount counted from their density: {fmt_volume(liquids)}")
     if solids:
-        notes.append(f"solids counted at an assumed {_SOLID_DENSITY} g/mL, typical of organic solids ({solids:.4g} mL)")
+        notes.append(f"solids counted at an assumed {_SOLID_DENSITY} g/mL, typical of organic solids: {fmt_volume(solids)}")
     return total, notes
 
 
