@@ -314,7 +314,18 @@ def _density_db(cas: str, mw: float, t_k: float, tm_k: float | None) -> Value | 
     return None
 
 
+# Liquids whose heat capacity is above 3.3 J/(g K): water, ammonia, hydrazine. For anything
+# else a larger tabulated value is a transcription slip in the source (n-butylamine is listed
+# at 294 J/(mol K) where measurements give about 190), and the next source is asked.
+_HIGH_CP = {"7732-18-5", "7664-41-7", "302-01-2"}
+
+
 def _cp_db(cas: str, mw: float) -> Value | None:
+    top = 5.0 if cas in _HIGH_CP else 3.3
+    return next((v for v in _cp_candidates(cas, mw) if 0.3 < v.value < top), None)
+
+
+def _cp_candidates(cas: str, mw: float):
     _, hc = _tables()
     t = 298.15
     for d in (hc.zabransky_dict_const_p, hc.zabransky_dict_sat_p, hc.zabransky_dict_iso_p):
@@ -327,21 +338,20 @@ def _cp_db(cas: str, mw: float) -> Value | None:
             except Exception:
                 v = None
             if v and getattr(z, "Tmin", 0) - 30 <= t <= getattr(z, "Tmax", 1e9) + 30:
-                return Value(v / mw, "J/(g·K)", "fit of measured data (Zabransky et al. 1996)",
-                             "Zabransky", U_CP_FITTED, True)
+                yield Value(v / mw, "J/(g·K)", "fit of measured data (Zabransky et al. 1996)",
+                        "Zabransky", U_CP_FITTED, True)
     if cas in hc.Cp_data_Poling.index:
         v = _num(hc.Cp_data_Poling.at[cas, "Cpl"])
         if v:
-            return Value(v / mw, "J/(g·K)", "tabulated at 25 °C (Poling, Prausnitz and O'Connell, 5th ed.)",
-                         "Poling table", U_CP_FITTED, True)
+            yield Value(v / mw, "J/(g·K)", "tabulated at 25 °C (Poling, Prausnitz and O'Connell, 5th ed.)",
+                        "Poling table", U_CP_FITTED, True)
     if cas in hc.Cp_data_Perry_Table_153_100.index:
         r = hc.Cp_data_Perry_Table_153_100.loc[cas]
         if r["Tmin"] <= t <= r["Tmax"]:
             v = r["A"] + r["B"] * t + r["C"] * t**2 + r["D"] * t**3 + r["E"] * t**4  # J/(kmol K)
             if v > 0:
-                return Value(v / 1000 / mw, "J/(g·K)", "DIPPR-100 fit of measured data (Perry's Handbook 8th ed.)",
-                             "DIPPR-100 (Perry 8th ed.)", U_CP_FITTED, True)
-    return None
+                yield Value(v / 1000 / mw, "J/(g·K)", "DIPPR-100 fit of measured data (Perry's Handbook 8th ed.)",
+                            "DIPPR-100 (Perry 8th ed.)", U_CP_FITTED, True)
 
 
 @lru_cache(maxsize=2048)
