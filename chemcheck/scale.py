@@ -15,12 +15,13 @@ and the site's process-safety review; local regulations and the SDS govern.
 
 from __future__ import annotations
 
+import math
 import re
 from dataclasses import dataclass
 
 from .errors import ChemcheckError
 
-__all__ = ["scale", "CAUTION", "CLASS_ENTHALPY"]
+__all__ = ["scale", "recheck", "CAUTION", "CLASS_ENTHALPY"]
 
 CAUTION = (
     "Scale-up estimates are a screen, not a safety assessment: they do not replace calorimetry "
@@ -302,6 +303,22 @@ def scale(
         "scale": {"factor": factor, "vessel_ml": vessel_ml, "start_c": start_c, "dh_kj_mol": dh_kj_mol},
     }
     return new
+
+
+def recheck(reaction: str, amounts: dict[str, str] | None, scale_input: dict | None = None):
+    """Check a recorded input again: a scaled report's input holds the scaled amounts and its
+    scale settings, so the vessel and thermal findings are made again at factor 1."""
+    from .engine import check
+
+    report = check(reaction, amounts or None)
+    if not isinstance(scale_input, dict) or not amounts:
+        return report
+
+    def num(key, default=None):
+        v = scale_input.get(key, default)
+        return float(v) if isinstance(v, (int, float)) and not isinstance(v, bool) and math.isfinite(v) else default
+
+    return scale(report, 1.0, vessel_ml=num("vessel_ml"), start_c=num("start_c", 20.0), dh_kj_mol=num("dh_kj_mol"))
 
 
 def _thermal(report, start_c: float, dh_kj_mol: float | None) -> dict | None:

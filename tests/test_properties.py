@@ -400,3 +400,23 @@ def test_values_are_finite():
         p = properties_for_inchikey(inchikey)
         for v in (p.density_20, p.density_25, p.cp_liquid):
             assert v is None or math.isfinite(v.value)
+
+
+def test_review_checks_a_scaled_report_again_with_its_scale(tmp_path):
+    import nbformat
+
+    from chemcheck.report import MIME_TYPE
+    from chemcheck.review import review_notebook
+
+    r = chemcheck.check(ACYLATION, {"NCc1ccccc1": "1.07 g", "CC(=O)Cl": "0.78 mL", "CCN(CC)CC": "2.09 mL", "ClCCl": "20 mL"})
+    big = scale(r, 40, vessel_ml=1000)
+    assert big.by_rule("vessel-overfilled")
+    nb = nbformat.v4.new_notebook()
+    cell = nbformat.v4.new_code_cell("chemcheck.scale(r, 40, vessel_ml=1000)")
+    cell.outputs = [nbformat.v4.new_output("display_data", data={MIME_TYPE: big.to_dict()})]
+    nb.cells.append(cell)
+    path = tmp_path / "scaled.ipynb"
+    nbformat.write(nb, str(path))
+    [rr] = review_notebook(path).reports
+    assert rr.recheck_error is None and rr.current is not None
+    assert rr.new == [] and rr.gone == [], ([f["rule"] for f in rr.new], [f["rule"] for f in rr.gone])
