@@ -208,6 +208,21 @@ def hydrate_finding(base: str, hydrate: str, comp: Component):
     )
 
 
+def _volume_to_measure(row: Row) -> None:
+    """A neat liquid of the curated table given in mmol or equiv: the volume to measure, in the
+    "read as" text (the curated table only, so that this never loads the property database)."""
+    from .properties import properties_for_inchikey
+
+    a = row.amount
+    if a is None or a.kind not in ("moles", "equiv") or row.mass_g is None or row.component.role == "product":
+        return
+    p = properties_for_inchikey(row.component.inchikey, database=False) if row.component.inchikey else None
+    if p is None or p.density_25 is None or p.phase == "s":
+        return
+    v = row.mass_g / p.density_25.value
+    row.read_as = (row.read_as or "") + f" = {fmt_volume(v)} at {p.density_25.value:.4g} g/mL (curated table, 25 °C)"
+
+
 def water_of_hydration(comp: Component) -> int:
     """How many water fragments a component carries beside its other fragments (a hydrate
     written ``C1CNCCN1.O.O.O.O.O.O``); 0 for anything else, and for water itself."""
@@ -238,7 +253,7 @@ def _read(row: Row) -> None:
     if a.kind == "moles":
         row.mmol = a.value
         row.mass_g = a.value * mw / 1000 if known else None
-        row.read_as = fmt_moles(a.value)
+        row.read_as = fmt_moles(a.value) + (f" = {fmt_mass(row.mass_g)}" if row.mass_g is not None else "")
     elif a.kind == "mass":
         frac = a.mass_fraction if a.mass_fraction is not None else 1.0
         row.weighed_g = a.value
@@ -353,6 +368,7 @@ def compute(reaction: Reaction, amounts: dict[str, str], coefficients: dict[int,
         elif row.mmol is not None and ref_mmol and row.component.kind != "solvent":
             row.equiv = row.mmol / ref_mmol
     for row in rows:
+        _volume_to_measure(row)
         n = water_of_hydration(row.component)
         if n and row.mmol is not None:
             row.water_mmol = n * row.mmol
