@@ -321,6 +321,15 @@ def recheck(reaction: str, amounts: dict[str, str] | None, scale_input: dict | N
     return scale(report, 1.0, vessel_ml=num("vessel_ml"), start_c=num("start_c", 20.0), dh_kj_mol=num("dh_kj_mol"))
 
 
+def _full_props(comp):
+    from .properties import properties_for_inchikey
+    from .stoichiometry import _mw_known
+
+    if not comp.inchikey:
+        return None
+    return properties_for_inchikey(comp.inchikey, comp.mw if _mw_known(comp) else None)
+
+
 def _thermal(report, start_c: float, dh_kj_mol: float | None) -> dict | None:
     st = report.stoichiometry
     if st is None or st.limiting is None or st.limiting.mmol is None:
@@ -364,7 +373,9 @@ def _thermal(report, start_c: float, dh_kj_mol: float | None) -> dict | None:
         m = r.weighed_g if r.weighed_g is not None else r.mass_g
         if not m:
             continue
-        p = _props(r.component)
+        # the thermal screen may load the database: a curated row without a heat capacity
+        # takes the database's value
+        p = _full_props(r.component)
         v = p.cp_liquid if p is not None else None
         c = v.value if (v is not None and 0.3 < v.value < 5.0) else None
         weighted += m * (c if c else _CP_DEFAULT)
