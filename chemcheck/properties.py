@@ -262,13 +262,19 @@ def _cas_for(inchikey: str) -> tuple[str, str | None, float | None] | None:
 
 
 @lru_cache(maxsize=1)
-def _tables():
-    import chemicals.heat_capacity as hc
+def _rho_tables():
     import chemicals.volume as vol
 
     vol._load_rho_data()
+    return vol
+
+
+@lru_cache(maxsize=1)
+def _cp_tables():
+    import chemicals.heat_capacity as hc
+
     hc._load_Cp_data()
-    return vol, hc
+    return hc
 
 
 def _density_db(cas: str, mw: float, t_k: float, tm_k: float | None) -> Value | None:
@@ -276,7 +282,7 @@ def _density_db(cas: str, mw: float, t_k: float, tm_k: float | None) -> Value | 
     from chemicals import acentric, critical
     from chemicals.dippr import EQ105
 
-    vol, _ = _tables()
+    vol = _rho_tables()
     t_c = t_k - 273.15
     tc = _num(critical.Tc(cas))
 
@@ -326,7 +332,7 @@ def _cp_db(cas: str, mw: float) -> Value | None:
 
 
 def _cp_candidates(cas: str, mw: float):
-    _, hc = _tables()
+    hc = _cp_tables()
     t = 298.15
     for d in (hc.zabransky_dict_const_p, hc.zabransky_dict_sat_p, hc.zabransky_dict_iso_p):
         z = d.get(cas)
@@ -355,7 +361,7 @@ def _cp_candidates(cas: str, mw: float):
 
 
 @lru_cache(maxsize=2048)
-def _from_database(inchikey: str, mw_hint: float | None = None) -> Properties | None:
+def _from_database(inchikey: str, mw_hint: float | None = None, cp: bool = True) -> Properties | None:
     hit = _cas_for(inchikey)
     if hit is None:
         return None
@@ -392,10 +398,10 @@ def _from_database(inchikey: str, mw_hint: float | None = None) -> Properties | 
         except Exception:  # a record the library cannot evaluate
             d20 = d25 = None
         try:
-            cp = _cp_db(cas, mw)
+            heat = _cp_db(cas, mw) if cp else None
         except Exception:
-            cp = None
-    return Properties(inchikey=inchikey, name=name, density_20=d20, density_25=d25, cp_liquid=cp,
+            heat = None
+    return Properties(inchikey=inchikey, name=name, density_20=d20, density_25=d25, cp_liquid=heat,
                       boiling_point=tb, melting_point=tm, flash_point=fp)
 
 
@@ -404,19 +410,22 @@ def _from_database(inchikey: str, mw_hint: float | None = None) -> Properties | 
 
 
 @lru_cache(maxsize=2048)
-def properties_for_inchikey(inchikey: str, mw: float | None = None, *, database: bool = True) -> Properties | None:
+def properties_for_inchikey(
+    inchikey: str, mw: float | None = None, *, database: bool = True, cp: bool = True
+) -> Properties | None:
     """Properties of the compound with this InChIKey; the curated table first (it answers
     without loading the database for anything it holds but a missing value), then the
-    database. ``None`` when no source knows the compound."""
+    database. ``None`` when no source knows the compound. ``cp=False`` leaves the heat
+    capacity out (its tables are not loaded) when only the density and phase are wanted."""
     if not inchikey:
         return None
     row = curated_table().get(inchikey)
     if row is not None:
-        need_db = database and (row.cp is None or row.bp is None or row.mp is None or row.flash is None)
-        return _from_curated(row, _from_database(inchikey, mw) if need_db else None)
+        need_db = database and ((cp and row.cp is None) or row.bp is None or row.mp is None or row.flash is None)
+        return _from_curated(row, _from_database(inchikey, mw, cp) if need_db else None)
     if not database:
         return None
-    return _from_database(inchikey, mw)
+    return _from_database(inchikey, mw, cp)
 
 
 def properties(smiles_or_name: str) -> Properties:

@@ -157,7 +157,8 @@ def _props(comp: Component):
         return None
     mw = comp.mw if _mw_known(comp) else None
     p = properties_for_inchikey(comp.inchikey, mw, database=False)
-    return p if p is not None else properties_for_inchikey(comp.inchikey, mw)
+    # density and phase only: the heat-capacity tables stay unloaded
+    return p if p is not None else properties_for_inchikey(comp.inchikey, mw, cp=False)
 
 
 def _density(comp: Component, amount: Amount) -> tuple[float | None, str | None, object]:
