@@ -11,6 +11,7 @@ from .basicity import Site, basic_sites
 from .engine import check
 from .errors import AmountError, ChemcheckError, LimitError, ParseError
 from .findings import Finding
+from .properties import properties
 from .reaction import Component, Reaction, parse_reaction
 from .report import MIME_TYPE, Report
 from .scale import scale
@@ -19,6 +20,7 @@ __all__ = [
     "__version__",
     "check",
     "scale",
+    "properties",
     "basic_sites",
     "Site",
     "parse_reaction",

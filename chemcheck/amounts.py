@@ -8,9 +8,16 @@ Grammar: ``<number> <unit>`` then optional comma-separated qualifiers:
 * a purity or assay ``95%`` (or ``95% purity``, ``assay 95%``);
 * stated equivalents ``1.0 equiv`` beside an amount, for the consistency check.
 
-Units are case-sensitive (``mM`` millimolar is not ``mm``): ``mg g kg``, ``µL uL mL L``,
+Units are case-sensitive (``mM`` millimolar is not ``mm``): ``µg mg g kg``, ``µL uL mL L``,
 ``µmol umol mmol mol``, and ``equiv`` (``eq``, ``equiv.``, ``eq.``) as a ratio of the
-chemcheck's own, not a pint unit. Every value is echoed back as it was read.
+chemcheck's own, not a pint unit. The micro sign (U+00B5) and the Greek mu (U+03BC) are both
+accepted, everywhere. Digits are ASCII 0-9 (other scripts' digits are refused with a message).
+Amounts below a physical minimum (1 pg, 1 pL, 1 fmol) are refused, so that no infinite or
+undefined number reaches the results. Every value is echoed back as it was read.
+
+``validate_amounts`` checks the keys and values of an amounts dict; ``add_amount`` adds one
+key to a dict being built from lines of text (command line, cell magic) and refuses a second
+amount for the same component text.
 """
 
 from __future__ import annotations
@@ -22,23 +29,79 @@ from dataclasses import dataclass
 from ._memo import Memo
 from .errors import AmountError
 
-__all__ = ["Amount", "parse_amount"]
+__all__ = ["Amount", "parse_amount", "validate_amounts", "add_amount"]
 
 _NUMBER = r"[+-]?(?:\d+(?:\.\d*)?|\.\d+)(?:[eE][+-]?\d+)?"
 _HEAD = re.compile(rf"^\s*(?P<num>{_NUMBER})\s*(?P<unit>[^\s,]+(?:\s*%)?)?\s*$")
 # The units accepted (case-sensitive) and their pint spelling; pint does the conversion.
+# Units are looked up after the Greek mu (U+03BC) is written as the micro sign (U+00B5).
 _MASS = {"mg": "milligram", "g": "gram", "kg": "kilogram", "µg": "microgram", "ug": "microgram"}
-_VOLUME = {"µL": "microliter", "uL": "microliter", "μL": "microliter", "mL": "milliliter", "L": "liter"}
-_MOLES = {"µmol": "micromole", "umol": "micromole", "μmol": "micromole", "mmol": "millimole", "mol": "mole"}
+_VOLUME = {"µL": "microliter", "uL": "microliter", "mL": "milliliter", "L": "liter"}
+_MOLES = {"µmol": "micromole", "umol": "micromole", "mmol": "millimole", "mol": "mole"}
 _EQUIV = {"equiv", "eq", "equiv.", "eq.", "equivalents", "equivalent"}
-_MOLARITY = {"M": "mole/liter", "mM": "millimole/liter", "mol/L": "mole/liter", "mmol/mL": "millimole/milliliter"}
+_MOLARITY = {
+    "M": "mole/liter", "mM": "millimole/liter", "µM": "micromole/liter", "uM": "micromole/liter",
+    "mol/L": "mole/liter", "mmol/mL": "millimole/milliliter",
+}
+# Physical minimums (in g, mL, mmol): below them the number is a typing slip, and dividing by it
+# would overflow to infinity.
+_MINIMUM = {"mass": (1e-12, "1 pg"), "volume": (1e-9, "1 pL"), "amount": (1e-12, "1 fmol"),
+            "equivalents": (1e-6, "0.000001 equiv"), "molarity": (1e-9, "1 nM"), "density": (0.05, "0.05 g/mL")}
 _DENSITY = {"g/mL": "gram/milliliter", "g/cm3": "gram/centimeter**3", "g/cm^3": "gram/centimeter**3", "kg/L": "kilogram/liter", "g/L": "gram/liter"}
 
 
 def _convert(value: float, unit: str, target: str) -> float:
-    from .units import Q_
+    from .units import convert
 
-    return float(Q_(value, unit).to(target).magnitude)
+    return convert(value, unit, target)
+
+
+def _mu(text: str) -> str:
+    return text.replace("\u03bc", "\u00b5")
+
+
+def _ascii_digits(text: str, key, whole) -> None:
+    for ch in text:
+        if ch.isdigit() and ch not in "0123456789":
+            raise AmountError(
+                f"'{ch}' is not an ASCII digit: write the number with the digits 0-9",
+                key=key, text=whole,
+            )
+
+
+def validate_amounts(amounts) -> dict[str, str] | None:
+    """The amounts dict checked: ``None`` or a dict of component text (str) to amount (str).
+    Raises :class:`AmountError` naming the bad key or value."""
+    if amounts is None:
+        return None
+    if not isinstance(amounts, dict):
+        raise AmountError(f"amounts must be a dict of component text to amount, not {type(amounts).__name__}")
+    for key, value in amounts.items():
+        if not isinstance(key, str):
+            raise AmountError(
+                f"a component must be given as its text in the reaction (a string), not {type(key).__name__} {key!r}"[:160],
+                key=str(key)[:40],
+            )
+        if not key.strip():
+            raise AmountError("an amount is given for an empty component name", key=key)
+        if not isinstance(value, str):
+            raise AmountError(
+                f"an amount must be text like '1.2 mmol', not {type(value).__name__}", key=key[:80],
+            )
+    return amounts
+
+
+def add_amount(amounts: dict[str, str], key: str, value: str, where: str | None = None) -> None:
+    """Add ``key = value`` to ``amounts`` being built from lines of text; a second amount for
+    the same component text is an :class:`AmountError` naming both."""
+    key, value = key.strip(), value.strip()
+    if key in amounts:
+        at = f" ({where})" if where else ""
+        raise AmountError(
+            f"two amounts are given for this component: '{amounts[key]}' and '{value}'{at}; keep one",
+            key=key, text=value,
+        )
+    amounts[key] = value
 
 
 _HINTS = {
@@ -118,7 +181,8 @@ def _parse_amount(text: str, key: str | None = None) -> Amount:
     whole = text
     if len(text) > 200:
         raise AmountError("the amount is longer than 200 characters", key=key, text=text[:40] + "...")
-    parts = [p.strip() for p in text.split(",")]
+    _ascii_digits(text, key, whole)
+    parts = [_mu(p.strip()) for p in text.split(",")]
     if not parts[0]:
         raise AmountError("empty amount (write e.g. '1.2 mmol')", key=key, text=whole)
     head = _split_number_unit(parts[0], key, whole)
@@ -195,7 +259,7 @@ def _head_kind(num: float, unit: str, key, whole) -> tuple[str, float]:
 def _unknown_unit(u: str, qualifier: bool = False) -> str:
     hint = _HINTS.get(u) or _HINTS.get(u.strip("."))
     allowed = (
-        "M, mM, wt%, g/mL, a purity in %, or equiv" if qualifier else "mg, g, kg, µL, mL, L, µmol, mmol, mol or equiv"
+        "M, mM, wt%, g/mL, a purity in %, or equiv" if qualifier else "µg, mg, g, kg, µL, mL, L, µmol, mmol, mol or equiv"
     )
     msg = f"unknown unit '{u}' (use {allowed}; units are case-sensitive)"
     if hint:
@@ -204,14 +268,21 @@ def _unknown_unit(u: str, qualifier: bool = False) -> str:
 
 
 def _positive(v: float, what: str, key, whole) -> float:
+    if not math.isfinite(v):
+        raise AmountError(f"the {what} is not a finite number", key=key, text=whole)
     if v <= 0:
         raise AmountError(f"the {what} must be positive", key=key, text=whole)
     if v > 1e9:
         raise AmountError(f"the {what} is implausibly large", key=key, text=whole)
+    low = _MINIMUM.get(what)
+    if low is not None and v < low[0] * (1 - 1e-9):  # the minimum itself is allowed
+        raise AmountError(f"the {what} is below {low[1]}: too small to weigh or measure (a typing slip?)", key=key, text=whole)
     return v
 
 
 def _fraction(v: float, what: str, key, whole) -> float:
     if not 0 < v <= 100:
         raise AmountError(f"the {what} must be between 0 and 100 %", key=key, text=whole)
+    if v < 0.01:
+        raise AmountError(f"the {what} is below 0.01 %: too small to be meant", key=key, text=whole)
     return v / 100.0

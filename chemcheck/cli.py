@@ -19,6 +19,8 @@ __all__ = ["main"]
 
 
 def _amounts(pairs: Sequence[str]) -> dict[str, str]:
+    from .amounts import add_amount
+
     out: dict[str, str] = {}
     for pair in pairs or ():
         # SMILES keys contain '=': split at the last '=' that is followed by a number
@@ -26,7 +28,7 @@ def _amounts(pairs: Sequence[str]) -> dict[str, str]:
         key, sep, value = (pair[:cut], "=", pair[cut + 1 :]) if cut > 0 else pair.partition("=")
         if not sep or not key.strip():
             raise ChemcheckError(f"--amount takes KEY=VALUE (the component as written, then the amount), got '{pair}'")
-        out[key.strip()] = value.strip()
+        add_amount(out, key, value, where=f"--amount given twice for '{key.strip()}'")
     return out
 
 

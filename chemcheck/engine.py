@@ -42,6 +42,8 @@ def _weighed_as_salt(text: str, rxn: Reaction, keys: list[str]) -> tuple[str, li
             others = [p for p in parts if p != comp.text]
             ok = bool(others)
             for other in others:
+                if other == "O":  # water of a hydrate, keyed like a salt
+                    continue
                 with _rdlog.captured():
                     mol = Chem.MolFromSmiles(other)
                 if mol is None or not (perceive(mol).group_names & acids or Chem.GetFormalCharge(mol) < 0):
@@ -65,10 +67,9 @@ def check(reaction: str | Reaction, amounts: dict[str, str] | None = None) -> Re
     :class:`~chemcheck.reaction.Reaction`; ``amounts`` maps a component's text as written to
     an amount string. Raises :class:`~chemcheck.errors.ChemcheckError` subclasses on bad input.
     """
-    if amounts is not None and not isinstance(amounts, dict):
-        from .errors import AmountError
+    from .amounts import validate_amounts
 
-        raise AmountError(f"amounts must be a dict of component text to amount, not {type(amounts).__name__}")
+    amounts = validate_amounts(amounts)
     salts: list[tuple[str, str]] = []
     if isinstance(reaction, Reaction):
         rxn = reaction
@@ -100,6 +101,11 @@ def check(reaction: str | Reaction, amounts: dict[str, str] | None = None) -> Re
     for base, salt in salts:
         comp = rxn.find(salt)
         if comp is None:
+            continue
+        if set(salt.split(".")) - {base} == {"O"}:
+            from .stoichiometry import hydrate_finding
+
+            findings.append(hydrate_finding(base, salt, comp))
             continue
         findings.append(
             Finding(

@@ -24,6 +24,8 @@ _SPLIT = re.compile(r"\s*=\s*(?=[+-]?[\d.])")
 
 
 def parse_cell(cell: str) -> tuple[str, dict[str, str]]:
+    from .amounts import add_amount
+
     lines = [ln.strip() for ln in cell.splitlines()]
     lines = [ln for ln in lines if ln and not ln.startswith("#")]
     if not lines:
@@ -38,7 +40,7 @@ def parse_cell(cell: str) -> tuple[str, dict[str, str]]:
         key, value = line[: m.start()].strip(), line[m.end() :].strip()
         if not key:
             raise ChemcheckError(f"line {n} '{line}': the component is missing before '='")
-        amounts[key] = value
+        add_amount(amounts, key, value, where=f"line {n}")
     return reaction, amounts
 
 

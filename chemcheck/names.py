@@ -29,7 +29,7 @@ class NameHit:
     name: str  # the name shown
     smiles: str
     kind: str | None
-    source: str  # "name table" or "chemicals database"
+    source: str  # "name table" or "chemicals database" (an exact name or listed synonym there)
 
 
 @lru_cache(maxsize=1)
@@ -113,7 +113,12 @@ def lookup_name(text: str, database: bool = True) -> NameHit | None:
 
 
 def _chemicals_lookup(text: str) -> NameHit | None:
-    # Only plausible names go to the database: it would also answer formulas and odd strings.
+    """A name the ``chemicals`` database holds exactly: its common name, its IUPAC name, or one
+    of its listed synonyms. The database's own search also answers formulas, CAS numbers,
+    element symbols and short abbreviations (``dna`` is listed for a naphthoic acid), so the
+    hit is kept only when the text is one of its names, and abbreviations of fewer than five
+    characters are not trusted."""
+    text = text.strip()
     if len(text) < 3 or not any(ch.isalpha() for ch in text):
         return None
     try:
@@ -121,10 +126,16 @@ def _chemicals_lookup(text: str) -> NameHit | None:
     except ImportError:  # pragma: no cover - chemicals is a dependency
         return None
     try:
-        meta = search_chemical(text.strip())
+        meta = search_chemical(text)
     except Exception:  # the database raises ValueError, and KeyError on some inputs
         return None
     smiles = getattr(meta, "smiles", None)
     if not smiles:
+        return None
+    wanted = text.casefold()
+    common = (getattr(meta, "common_name", None) or "").casefold()
+    iupac = (getattr(meta, "iupac_name", None) or "").casefold()
+    synonyms = [str(s).casefold() for s in (getattr(meta, "synonyms", None) or ())]
+    if wanted not in (common, iupac) and not (wanted in synonyms and len(wanted) >= 5):
         return None
     return NameHit(getattr(meta, "common_name", None) or text, smiles, None, "chemicals database")

@@ -1,12 +1,11 @@
-"""Physical data at 25 °C from the ``chemicals``/``thermo`` databases, looked up by InChIKey.
+"""Physical data at 25 °C in the shape the older callers used, from :mod:`chemcheck.properties`.
 
-Never by SMILES string (aromatic forms are missed and some strings resolve to the wrong
-compound). The first look-up loads the databases (about 2 s); results are cached.
+Looked up by InChIKey, never by SMILES string. The curated table answers the common liquids
+without loading the ``chemicals`` database; anything else loads it on first use.
 """
 
 from __future__ import annotations
 
-import warnings
 from dataclasses import dataclass
 from functools import lru_cache
 
@@ -21,34 +20,27 @@ class Props:
     tm_c: float | None
     tb_c: float | None
     cp_j_gk: float | None  # liquid heat capacity
-    source: str = "thermo/chemicals database at 25 °C"
+    source: str = "curated table or chemicals database, 25 °C"
+    density_estimated: bool = False
+    cp_source: str | None = None
 
 
 @lru_cache(maxsize=1024)
 def props_for(inchikey: str) -> Props | None:
-    if not inchikey:
+    from .properties import properties_for_inchikey
+
+    p = properties_for_inchikey(inchikey, database=False) or properties_for_inchikey(inchikey)
+    if p is None:
         return None
-    try:
-        with warnings.catch_warnings():
-            warnings.simplefilter("ignore")
-            from thermo import Chemical
-
-            c = Chemical("InChIKey=" + inchikey, T=298.15)
-    except Exception:  # unknown compound, or a record the library cannot evaluate
-        return None
-
-    def num(x, scale=1.0, offset=0.0):
-        try:
-            v = float(x)
-        except (TypeError, ValueError):
-            return None
-        return v * scale + offset if v == v else None
-
+    d = p.density_25
     return Props(
-        name=getattr(c, "name", None),
-        density_g_ml=num(getattr(c, "rho", None), 1e-3),
-        phase=getattr(c, "phase", None),
-        tm_c=num(getattr(c, "Tm", None), 1.0, -273.15),
-        tb_c=num(getattr(c, "Tb", None), 1.0, -273.15),
-        cp_j_gk=num(getattr(c, "Cpl", None), 1e-3),
+        name=p.name,
+        density_g_ml=d.value if d else None,
+        phase=p.phase,
+        tm_c=p.melting_point.value if p.melting_point else None,
+        tb_c=p.boiling_point.value if p.boiling_point else None,
+        cp_j_gk=p.cp_liquid.value if p.cp_liquid else None,
+        source=d.source if d else "no density known",
+        density_estimated=bool(d and not d.measured),
+        cp_source=p.cp_liquid.source if p.cp_liquid else None,
     )

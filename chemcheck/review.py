@@ -101,7 +101,7 @@ def _ident(f: dict) -> tuple:
 def review_notebook(path: str | Path, recheck: bool = True) -> NotebookReview:
     import nbformat
 
-    from .engine import check
+    from .scale import recheck as _again  # a scaled report is checked again with its scale settings
 
     p = Path(path)
     try:
@@ -131,7 +131,7 @@ def review_notebook(path: str | Path, recheck: bool = True) -> NotebookReview:
             err = None
             if recheck:
                 try:
-                    current = check(reaction, amounts or None).to_dict()["findings"]
+                    current = _again(reaction, amounts or None, inp.get("scale")).to_dict()["findings"]
                 except ChemcheckError as exc:
                     err = str(exc)
             rr = ReportReview(index, reaction, amounts, recorded, current, err, acks)

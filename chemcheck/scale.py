@@ -15,12 +15,13 @@ and the site's process-safety review; local regulations and the SDS govern.
 
 from __future__ import annotations
 
+import math
 import re
 from dataclasses import dataclass
 
 from .errors import ChemcheckError
 
-__all__ = ["scale", "CAUTION", "CLASS_ENTHALPY"]
+__all__ = ["scale", "recheck", "CAUTION", "CLASS_ENTHALPY"]
 
 CAUTION = (
     "Scale-up estimates are a screen, not a safety assessment: they do not replace calorimetry "
@@ -48,6 +49,9 @@ CLASS_ENTHALPY: dict[str, tuple[float, str]] = {
 }
 
 _CP_DEFAULT = 1.8  # J/(g K), organic liquids (common practice 1.5-2.1)
+# Vessel fill: a solid charge takes up about its mass over its crystal density; organic solids
+# are mostly 1.1-1.5 g/mL (common practice), so 1.3 g/mL is assumed when nothing better is known.
+_SOLID_DENSITY = 1.3
 _FILL_MAX = 0.5  # common practice: no more than half full, leaving room to stir, foam and reflux
 _FILL_LIMIT = 0.75
 
@@ -61,11 +65,15 @@ class ScaleInfo:
     cautions: list[str]
 
     def to_dict(self) -> dict:
+        thermal = None
+        if self.thermal is not None:
+            # the payload's thermal values are numbers or words
+            thermal = {k: ("yes" if v else "no") if isinstance(v, bool) else v for k, v in self.thermal.items()}
         return {
             "factor": self.factor,
             "vessel_ml": self.vessel_ml,
             "fill_fraction": self.fill_fraction,
-            "thermal": self.thermal,
+            "thermal": thermal,
             "cautions": self.cautions,
         }
 
@@ -74,15 +82,58 @@ _NUM = re.compile(r"^\s*([+-]?(?:\d+(?:\.\d*)?|\.\d+)(?:[eE][+-]?\d+)?)\s*(.*)$"
 
 
 def _scale_amount(text: str, factor: float) -> str:
-    """Scale the head amount of an amount string; equivalents and qualifiers stay."""
+    """Scale the head amount of an amount string, written in a unit a chemist reads at that
+    scale (kg and L rather than 1.94e+04 mmol); equivalents and qualifiers stay."""
+    from .amounts import parse_amount
+    from .units import fmt_mass, fmt_moles, fmt_volume
+
     head, sep, rest = text.partition(",")
     m = _NUM.match(head)
     if not m:
         return text
-    value, unit = float(m.group(1)), m.group(2).strip()
-    if unit in ("equiv", "eq", "equiv.", "eq.", "equivalents", "equivalent"):
+    try:
+        a = parse_amount(head.strip())
+    except ChemcheckError:
         return text
-    return f"{value * factor:.4g} {unit}" + (sep + rest if sep else "")
+    if a.kind == "equiv":
+        return text
+    fmt = {"mass": fmt_mass, "volume": fmt_volume, "moles": fmt_moles}[a.kind]
+    return fmt(a.value * factor) + (sep + rest if sep else "")
+
+
+def charge_volumes(st) -> tuple[float, list[str]]:
+    """Every charge's volume in mL (the vessel fill) and how each was counted: volumes as
+    measured; neat liquids given by mass, mmol or equiv from their density; solids at an
+    assumed density."""
+    from .stoichiometry import _props
+    from .units import fmt_volume
+
+    total = 0.0
+    solids = liquids = 0.0
+    notes: list[str] = []
+    for r in st.rows:
+        if r.component.role == "product":
+            continue
+        if r.volume_ml:
+            total += r.volume_ml
+            continue
+        m = r.weighed_g if r.weighed_g is not None else r.mass_g
+        if not m:
+            continue
+        p = _props(r.component)
+        d = p.density_25 if p is not None else None
+        liquid = p is not None and (p.curated or p.phase == "l") and d is not None
+        if liquid:
+            total += m / d.value
+            liquids += m / d.value
+        else:
+            total += m / _SOLID_DENSITY
+            solids += m / _SOLID_DENSITY
+    if liquids:
+        notes.append(f"neat liquids given by mass or amount counted from their density: {fmt_volume(liquids)}")
+    if solids:
+        notes.append(f"solids counted at an assumed {_SOLID_DENSITY} g/mL, typical of organic solids: {fmt_volume(solids)}")
+    return total, notes
 
 
 def _reaction_class(report) -> str:
@@ -118,7 +169,6 @@ def _reaction_class(report) -> str:
 def _enthalpy_from_formation(report) -> float | None:
     """dH_r (kJ/mol) from enthalpies of formation when the database has every species."""
     try:
-        from .physprops import props_for  # noqa: F401  (loads the database lazily)
         from chemicals import Hfl, Hfg
         from chemicals.identifiers import search_chemical
     except ImportError:
@@ -181,16 +231,17 @@ def scale(
         raise ChemcheckError(f"scale factor must be positive and at most 10^6, got {factor}")
     amounts = {k: _scale_amount(v, factor) for k, v in report.amounts.items()}
     new = check(report.reaction.text, amounts)
+    from .units import fmt_volume
     nst = new.stoichiometry
     cautions: list[str] = []
     findings = list(new.findings)
     from .findings import Finding
 
     fill = None
-    total_v = nst.total_volume_ml if nst else None
+    total_v, fill_notes = charge_volumes(nst) if nst else (None, [])
     if vessel_ml is not None:
-        if vessel_ml <= 0:
-            raise ChemcheckError("vessel volume must be positive")
+        if not (vessel_ml > 0) or vessel_ml > 1e9:
+            raise ChemcheckError("vessel volume must be positive (in mL) and at most 10^9 mL")
         if total_v:
             fill = total_v / vessel_ml
             if fill > _FILL_MAX:
@@ -200,9 +251,10 @@ def scale(
                         rule="vessel-overfilled",
                         severity=sev,
                         title="Vessel filled beyond common practice",
-                        message=f"The liquids come to {total_v:.4g} mL, {100 * fill:.0f} % of the {vessel_ml:g} mL vessel"
+                        message=f"The charges come to {fmt_volume(total_v)}, {100 * fill:.0f} % of the {fmt_volume(vessel_ml)} vessel"
+                        + (f" ({'; '.join(fill_notes)})" if fill_notes else "")
                         + (" — more than it holds." if fill > 1 else f"; common practice is to fill no more than {100 * _FILL_MAX:.0f} % (room to stir, for foaming, reflux and additions)."),
-                        fix=f"Use a vessel of at least {total_v / _FILL_MAX:.0f} mL, or run more concentrated only after checking the heat release and solubility.",
+                        fix=f"Use a vessel of at least {fmt_volume(total_v / _FILL_MAX)}, or run more concentrated only after checking the heat release and solubility.",
                     )
                 )
     thermal = _thermal(new, start_c, dh_kj_mol)
@@ -228,6 +280,11 @@ def scale(
             f"{thermal['dh_kj_mol']:.0f} kJ/mol, {thermal['dh_source']}; heat capacity {thermal['cp_j_gk']:.2f} J/(g K), "
             f"{thermal['cp_source']}): an estimate only."
         )
+    if fill is not None:
+        cautions.append(
+            f"Vessel fill {100 * fill:.0f} %: {fmt_volume(total_v)} of charges in {fmt_volume(vessel_ml)}"
+            + (f" ({'; '.join(fill_notes)})." if fill_notes else ".")
+        )
     if nst and nst.concentration_m:
         cautions.append(f"Concentration of the limiting reagent {nst.concentration_m:.3g} M (unchanged by the factor).")
     if factor >= 10:
@@ -240,8 +297,37 @@ def scale(
     info = ScaleInfo(factor, vessel_ml, None if fill is None else round(fill, 3), thermal, cautions)
     new.scale_info = info
     new.extra["scale"] = info.to_dict()
-    new.extra["input"] = {"scale": {"factor": factor, "vessel_ml": vessel_ml, "start_c": start_c, "dh_kj_mol": dh_kj_mol}}
+    new.extra["input"] = {
+        "reaction": new.reaction.text,
+        "amounts": dict(new.amounts),
+        "scale": {"factor": factor, "vessel_ml": vessel_ml, "start_c": start_c, "dh_kj_mol": dh_kj_mol},
+    }
     return new
+
+
+def recheck(reaction: str, amounts: dict[str, str] | None, scale_input: dict | None = None):
+    """Check a recorded input again: a scaled report's input holds the scaled amounts and its
+    scale settings, so the vessel and thermal findings are made again at factor 1."""
+    from .engine import check
+
+    report = check(reaction, amounts or None)
+    if not isinstance(scale_input, dict) or not amounts:
+        return report
+
+    def num(key, default=None):
+        v = scale_input.get(key, default)
+        return float(v) if isinstance(v, (int, float)) and not isinstance(v, bool) and math.isfinite(v) else default
+
+    return scale(report, 1.0, vessel_ml=num("vessel_ml"), start_c=num("start_c", 20.0), dh_kj_mol=num("dh_kj_mol"))
+
+
+def _full_props(comp):
+    from .properties import properties_for_inchikey
+    from .stoichiometry import _mw_known
+
+    if not comp.inchikey:
+        return None
+    return properties_for_inchikey(comp.inchikey, comp.mw if _mw_known(comp) else None)
 
 
 def _thermal(report, start_c: float, dh_kj_mol: float | None) -> dict | None:
@@ -268,35 +354,42 @@ def _thermal(report, start_c: float, dh_kj_mol: float | None) -> dict | None:
             mass += m
     if mass <= 0:
         return None
-    from .physprops import props_for
+    from .stoichiometry import _props
 
     solvent = None
     for r in sorted(st.rows, key=lambda r: -(r.volume_ml or 0)):
         if r.volume_ml and r.component.role == "agent":
-            p = props_for(r.component.inchikey)
+            p = _props(r.component)
             if p is not None:
                 solvent = (r.component.label, p)
                 break
     # mass-weighted heat capacity of the batch; components without data count at the default
     weighted = 0.0
     known = 0.0
+    estimated = False
     for r in st.rows:
         if r.component.role == "product":
             continue
         m = r.weighed_g if r.weighed_g is not None else r.mass_g
         if not m:
             continue
-        p = props_for(r.component.inchikey)
-        c = p.cp_j_gk if (p is not None and p.cp_j_gk and 0.3 < p.cp_j_gk < 5.0) else None
+        # the thermal screen may load the database: a curated row without a heat capacity
+        # takes the database's value
+        p = _full_props(r.component)
+        v = p.cp_liquid if p is not None else None
+        c = v.value if (v is not None and 0.3 < v.value < 5.0) else None
         weighted += m * (c if c else _CP_DEFAULT)
         known += m if c else 0.0
+        estimated = estimated or bool(v is not None and not v.measured)
     cp = weighted / mass
     cp_source = (
-        f"mass-weighted over the batch, database values for {100 * known / mass:.0f} % of the mass"
+        f"mass-weighted over the batch: handbook or fitted values for {100 * known / mass:.0f} % of the mass, "
+        f"{_CP_DEFAULT} J/(g K) (typical organic liquid) for the rest"
         if known
         else "typical organic liquid (common practice)"
     )
     dT = (-dh * 1000.0 * st.limiting.mmol / 1000.0) / (mass * cp)
+    bp = solvent[1].boiling_point.value if solvent and solvent[1].boiling_point else None
     out = {
         "dh_kj_mol": round(dh, 1),
         "dh_source": src,
@@ -306,7 +399,7 @@ def _thermal(report, start_c: float, dh_kj_mol: float | None) -> dict | None:
         "cp_source": cp_source,
         "mass_g": round(mass, 3),
         "solvent": solvent[0] if solvent else None,
-        "solvent_bp_c": round(solvent[1].tb_c, 1) if solvent and solvent[1].tb_c is not None else None,
-        "reaches_boiling": bool(solvent and solvent[1].tb_c is not None and start_c + dT >= solvent[1].tb_c),
+        "solvent_bp_c": round(bp, 1) if bp is not None else None,
+        "reaches_boiling": bool(bp is not None and start_c + dT >= bp),
     }
     return out

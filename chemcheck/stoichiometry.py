@@ -21,9 +21,10 @@ from __future__ import annotations
 
 from dataclasses import dataclass, field
 
-from .amounts import Amount, parse_amount
+from .amounts import Amount, parse_amount, validate_amounts
 from .errors import AmountError
 from .reaction import Component, Reaction
+from .units import fmt_mass, fmt_moles, fmt_volume
 
 __all__ = ["Row", "Stoichiometry", "compute", "COLUMNS"]
 
@@ -40,6 +41,8 @@ class Row:
     volume_ml: float | None = None
     density: float | None = None
     density_source: str | None = None
+    density_value: object = None  # the properties.Value the density came from, when looked up
+    water_mmol: float | None = None  # water of hydration charged with a hydrate
     purity: float | None = None
     equiv: float | None = None
     theoretical_g: float | None = None
@@ -52,7 +55,7 @@ class Row:
         return {
             "role": c.role,
             "formula": c.formula,
-            "mw": round(c.mw, 3),
+            "mw": _r(c.mw) if _mw_known(c) else None,
             "mass_g": _r(self.mass_g),
             "volume_ml": _r(self.volume_ml),
             "density_g_ml": _r(self.density),
@@ -65,7 +68,9 @@ class Row:
 
 
 def _r(x):
-    return None if x is None else float(f"{x:.6g}")
+    if x is None or x != x or x in (float("inf"), float("-inf")):
+        return None  # never NaN or infinity in the payload
+    return float(f"{x:.6g}")
 
 
 @dataclass
@@ -80,6 +85,7 @@ class Stoichiometry:
     pmi: float | None
     e_factor: float | None
     density_missing: list[Row] = field(default_factory=list)
+    density_estimated: list[Row] = field(default_factory=list)
     mismatches: list[tuple[Row, float, str]] = field(default_factory=list)
     assumed: bool = False
 
@@ -115,51 +121,140 @@ class Stoichiometry:
 
 def match_amounts(reaction: Reaction, amounts: dict[str, str]) -> dict[int, str]:
     """Component index for each amounts key (the component's text as written)."""
+    validate_amounts(amounts)
     out: dict[int, str] = {}
+    first_key: dict[int, str] = {}
     for key, value in amounts.items():
         comp = reaction.find(key.strip())
         if comp is None:
             known = ", ".join(f"'{c.text}'" for c in reaction.components)
             raise AmountError(f"no component is written '{key}' in the reaction (components: {known})", key=key, text=str(value))
         if comp.index in out:
-            raise AmountError("the component has two amounts", key=key, text=str(value))
+            raise AmountError(
+                f"the component has two amounts: '{first_key[comp.index]}' = '{out[comp.index]}' and "
+                f"'{key}' = '{value}'; keep one",
+                key=key, text=str(value),
+            )
         out[comp.index] = value
+        first_key[comp.index] = key
     return out
 
 
-def _density(comp: Component, amount: Amount) -> tuple[float | None, str | None]:
-    if amount.density is not None:
-        return amount.density, "as given"
-    from .physprops import props_for
+def _mw_known(comp: Component) -> bool:
+    """The molar mass means something: finite, positive, and no dummy atom (``*``) in it."""
+    mw = comp.mw
+    if not (mw == mw and 0 < mw < 1e7):
+        return False
+    return all(a.GetAtomicNum() > 0 for a in comp.mol.GetAtoms())
 
-    p = props_for(comp.inchikey)
-    if p is not None and p.density_g_ml and p.phase == "l":
-        return p.density_g_ml, "database, 25 °C"
-    return None, None
+
+def _props(comp: Component):
+    """Properties of a component: the curated table first (no database load), then the
+    database."""
+    from .properties import properties_for_inchikey
+
+    if not comp.inchikey:
+        return None
+    mw = comp.mw if _mw_known(comp) else None
+    p = properties_for_inchikey(comp.inchikey, mw, database=False)
+    # density and phase only: the heat-capacity tables stay unloaded
+    return p if p is not None else properties_for_inchikey(comp.inchikey, mw, cp=False)
+
+
+def _density(comp: Component, amount: Amount) -> tuple[float | None, str | None, object]:
+    if amount.density is not None:
+        return amount.density, "as given", None
+    p = _props(comp)
+    d = p.density_25 if p is not None else None
+    if d is None or (not p.curated and p.phase not in ("l", None)):
+        return None, None, None
+    if d.measured:
+        short = "curated table" if p.curated else d.method
+        return d.value, f"{short}, 25 °C", d
+    return d.value, f"estimated, ±{100 * d.uncertainty:.0f} %", d
 
 
 def _is_solid(comp: Component) -> tuple[bool, float | None]:
-    from .physprops import props_for
-
-    p = props_for(comp.inchikey)
-    if p is not None and p.phase == "s":
-        return True, p.tm_c
+    p = _props(comp)
+    if p is not None and not p.curated and p.phase == "s":
+        return True, p.melting_point.value if p.melting_point else None
     if len(comp.fragments) > 1 and comp.charge == 0 and any(a.GetFormalCharge() for a in comp.mol.GetAtoms()):
         return True, None  # a salt drawn as ions
     return False, None
+
+
+# Groups that react with water (hydrolysis, or quenching): a hydrate's water consumes them.
+MOISTURE_SENSITIVE = {
+    "acid_halide", "chloroformate", "carbamoyl_chloride", "carbonyl_dihalide", "anhydride", "dicarbonate",
+    "sulfonic_anhydride", "sulfonyl_halide", "inorganic_acid_chloride", "isocyanate", "carbodiimide",
+    "hydride_ion", "metal_amide", "organometallic_base", "aluminium_hydride", "chlorosulfonic_acid",
+    "sulfuryl_chloride",
+}
+
+
+def hydrate_finding(base: str, hydrate: str, comp: Component):
+    """The note for an amount keyed by a hydrate of a component drawn anhydrous."""
+    from .findings import Finding
+
+    n = water_of_hydration(comp)
+    return Finding(
+        rule="weighed-as-hydrate",
+        severity="info",
+        title="Amount given for the hydrate of a component",
+        message=f"The amount is given for {hydrate}, the hydrate of {base} as drawn in the reaction ({n} H2O): "
+        f"the check reads the component as the hydrate ({comp.formula}, {comp.mw:.2f} g/mol), so the mass weighed "
+        "converts to moles of the hydrate, and its water is counted beside it.",
+        atoms=(),
+        fix=f"Draw {hydrate} in the reaction, or give the amount of anhydrous {base}.",
+    )
+
+
+def _volume_to_measure(row: Row) -> None:
+    """A neat liquid of the curated table given in mmol or equiv: the volume to measure, in the
+    "read as" text (the curated table only, so that this never loads the property database)."""
+    from .properties import properties_for_inchikey
+
+    a = row.amount
+    if a is None or a.kind not in ("moles", "equiv") or row.mass_g is None or row.component.role == "product":
+        return
+    p = properties_for_inchikey(row.component.inchikey, database=False) if row.component.inchikey else None
+    if p is None or p.density_25 is None or p.phase == "s":
+        return
+    v = row.mass_g / p.density_25.value
+    row.read_as = (row.read_as or "") + f" = {fmt_volume(v)} at {p.density_25.value:.4g} g/mL (curated table, 25 °C)"
+
+
+def water_of_hydration(comp: Component) -> int:
+    """How many water fragments a component carries beside its other fragments (a hydrate
+    written ``C1CNCCN1.O.O.O.O.O.O``); 0 for anything else, and for water itself."""
+    from rdkit import Chem
+
+    if len(comp.fragments) < 2:
+        return 0
+    frags = Chem.GetMolFrags(comp.mol, asMols=True, sanitizeFrags=False)
+    n = sum(1 for f in frags if f.GetNumAtoms() == 1 and f.GetAtomWithIdx(0).GetAtomicNum() == 8
+            and f.GetAtomWithIdx(0).GetTotalNumHs() == 2 and f.GetAtomWithIdx(0).GetFormalCharge() == 0)
+    return n if n < len(frags) else 0
 
 
 def _read(row: Row) -> None:
     """Moles and masses of one component from its amount (not equivalents)."""
     a = row.amount
     c = row.component
-    mw = c.mw
+    known = _mw_known(c)
+    mw = c.mw if known else None
+    if not known and a.kind in ("mass", "volume") and a.molarity is None:
+        raise AmountError(
+            f"{c.label} has no molar mass (it contains a dummy atom '*' or is not a complete structure): "
+            "a mass or volume cannot be turned into moles; give the amount in mmol or equiv",
+            key=c.text, text=a.text,
+        )
     purity = a.purity if a.purity is not None else 1.0
     row.purity = a.purity
     if a.kind == "moles":
         row.mmol = a.value
-        row.mass_g = a.value * mw / 1000
-        row.read_as = f"{a.value:.4g} mmol"
+        row.mass_g = a.value * mw / 1000 if known else None
+        row.read_as = fmt_moles(a.value) + (f" = {fmt_mass(row.mass_g)}" if row.mass_g is not None else "")
     elif a.kind == "mass":
         frac = a.mass_fraction if a.mass_fraction is not None else 1.0
         row.weighed_g = a.value
@@ -168,21 +263,21 @@ def _read(row: Row) -> None:
         if a.mass_fraction is not None and a.density is not None:
             row.volume_ml = a.value / a.density
             row.density = a.density
-        what = f"{a.value:.4g} g" + (f" of a {100 * frac:.3g} wt% solution" if a.mass_fraction else "")
+        what = fmt_mass(a.value) + (f" of a {100 * frac:.3g} wt% solution" if a.mass_fraction else "")
         what += f" at {100 * purity:.3g} % purity" if a.purity is not None else ""
         if a.mass_fraction is None and a.purity is None:
-            row.read_as = f"{what} = {row.mmol:.4g} mmol"
+            row.read_as = f"{what} = {fmt_moles(row.mmol)}"
         else:
-            row.read_as = f"{what} = {row.mass_g:.4g} g of {c.formula} = {row.mmol:.4g} mmol"
+            row.read_as = f"{what} = {fmt_mass(row.mass_g)} of {c.formula} = {fmt_moles(row.mmol)}"
     elif a.kind == "volume":
         row.volume_ml = a.value
         if a.molarity is not None:
             row.mmol = a.value * a.molarity * purity
-            row.mass_g = row.mmol * mw / 1000
-            row.read_as = f"{a.value:.4g} mL of {a.molarity:.4g} M = {row.mmol:.4g} mmol"
+            row.mass_g = row.mmol * mw / 1000 if known else None
+            row.read_as = f"{fmt_volume(a.value)} of {a.molarity:.4g} M = {fmt_moles(row.mmol)}"
             row.density = a.density
         else:
-            density, source = _density(c, a)
+            density, source, value = _density(c, a)
             if a.mass_fraction is None:
                 solid, tm = _is_solid(c)
                 if solid and a.density is None:
@@ -193,25 +288,28 @@ def _read(row: Row) -> None:
                     )
             if density is None:
                 row.density = None
-                row.read_as = f"{a.value:.4g} mL (density unknown: moles not computed)"
+                row.read_as = f"{fmt_volume(a.value)} (density unknown: moles not computed)"
                 row.notes.append("density unknown")
                 return
-            row.density, row.density_source = density, source
+            row.density, row.density_source, row.density_value = density, source, value
             weighed = a.value * density
             frac = a.mass_fraction if a.mass_fraction is not None else 1.0
             if a.mass_fraction is not None and a.density is None:
                 row.notes.append("density unknown")
-                row.read_as = f"{a.value:.4g} mL of a {100 * frac:.3g} wt% solution (its density is needed)"
+                row.read_as = f"{fmt_volume(a.value)} of a {100 * frac:.3g} wt% solution (its density is needed)"
                 row.density = None
                 return
             row.weighed_g = weighed
             row.mass_g = weighed * frac * purity
-            row.mmol = row.mass_g / c.mw * 1000
+            row.mmol = row.mass_g / mw * 1000
             row.read_as = (
-                f"{a.value:.4g} mL × {density:.4g} g/mL ({source}) = {weighed:.4g} g"
+                f"{fmt_volume(a.value)} × {density:.4g} g/mL ({source}) = {fmt_mass(weighed)}"
                 + (f" of a {100 * frac:.3g} wt% solution" if a.mass_fraction is not None else "")
-                + f" = {row.mmol:.4g} mmol"
+                + f" = {fmt_moles(row.mmol)}"
             )
+            if value is not None and not value.measured:
+                row.notes.append("density estimated")
+                row.read_as += f"; density estimated, ±{100 * value.uncertainty:.0f} %: weigh it or give the density"
 
 
 def compute(reaction: Reaction, amounts: dict[str, str], coefficients: dict[int, int] | None) -> Stoichiometry:
@@ -254,20 +352,29 @@ def compute(reaction: Reaction, amounts: dict[str, str], coefficients: dict[int,
         ref_mmol = scale
         if ref_mmol is not None:
             reference.mmol = ref_mmol
-            reference.mass_g = ref_mmol * reference.component.mw / 1000
-            reference.read_as = f"1.0 equiv = {ref_mmol:.4g} mmol"
+            reference.mass_g = ref_mmol * reference.component.mw / 1000 if _mw_known(reference.component) else None
+            reference.read_as = f"1.0 equiv = {fmt_moles(ref_mmol)}"
     for row in rows:
         a = row.amount
         if a is not None and a.kind == "equiv":
             row.equiv = a.value
             if ref_mmol is not None:
                 row.mmol = a.value * ref_mmol
-                row.mass_g = row.mmol * row.component.mw / 1000
-                row.read_as = f"{a.value:.4g} equiv = {row.mmol:.4g} mmol"
+                row.mass_g = row.mmol * row.component.mw / 1000 if _mw_known(row.component) else None
+                row.read_as = f"{a.value:.4g} equiv = {fmt_moles(row.mmol)}"
+                if row.mass_g is not None:
+                    row.read_as += f" = {fmt_mass(row.mass_g)}"
             else:
                 row.read_as = f"{a.value:.4g} equiv"
         elif row.mmol is not None and ref_mmol and row.component.kind != "solvent":
             row.equiv = row.mmol / ref_mmol
+    for row in rows:
+        _volume_to_measure(row)
+        n = water_of_hydration(row.component)
+        if n and row.mmol is not None:
+            row.water_mmol = n * row.mmol
+            if row.read_as:
+                row.read_as += f" (with {fmt_moles(row.water_mmol)} of water of hydration, {fmt_mass(row.water_mmol * 18.015 / 1000)})"
     if limiting is None:
         cands = [r for r in rows if r.component.role == "reactant" and r.mmol is not None]
         limiting = min(cands, key=lambda r: r.mmol / coeff[r.component.index], default=None)
@@ -275,9 +382,11 @@ def compute(reaction: Reaction, amounts: dict[str, str], coefficients: dict[int,
     for row in rows:
         if row.component.role != "product" or limiting is None or limiting.mmol is None:
             continue
+        if not _mw_known(row.component):
+            continue
         k = coeff.get(row.component.index, 1) / coeff.get(limiting.component.index, 1)
         row.theoretical_g = limiting.mmol * k * row.component.mw / 1000
-        if row.amount is not None and row.mass_g is not None and row.amount.kind in ("mass", "moles"):
+        if row.amount is not None and row.mass_g is not None and row.amount.kind in ("mass", "moles") and row.theoretical_g > 0:
             row.yield_pct = 100 * row.mass_g / row.theoretical_g
             row.equiv = None
     # concentration of the limiting reagent in the liquid volume
@@ -320,6 +429,7 @@ def compute(reaction: Reaction, amounts: dict[str, str], coefficients: dict[int,
         pmi=pmi,
         e_factor=e_factor,
         density_missing=[r for r in rows if "density unknown" in r.notes],
+        density_estimated=[r for r in rows if "density estimated" in r.notes],
         mismatches=mismatches,
     )
 
@@ -327,7 +437,7 @@ def compute(reaction: Reaction, amounts: dict[str, str], coefficients: dict[int,
 def _atom_economy(reaction: Reaction, coeff: dict[int, int]) -> float | None:
     products = reaction.products
     reactants = reaction.reactants
-    if not products or not reactants:
+    if not products or not reactants or not all(_mw_known(c) for c in products + reactants):
         return None
     main = max(products, key=lambda c: c.mw)
     denom = sum(c.mw * coeff.get(c.index, 1) for c in reactants)

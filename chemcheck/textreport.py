@@ -37,18 +37,24 @@ def render_text(report) -> str:
         lines.append(f"  {'component':24s} {'MW':>8s} {'mass g':>9s} {'mL':>8s} {'mmol':>9s} {'equiv':>6s}  read as")
         for r in st.rows:
             def f(x, w, d=4):
-                return f"{x:{w}.{d}g}" if x is not None else " " * (w - 1) + "-"
+                if x is None:
+                    return " " * (w - 1) + "-"
+                return f"{x:{w}.0f}" if abs(x) >= 10**d else f"{x:{w}.{d}g}"  # 12480, never 1.248e+04
             lines.append(
                 f"  {r.component.text[:24]:24s} {r.component.mw:8.2f} {f(r.mass_g, 9)} {f(r.volume_ml, 8)} "
                 f"{f(r.mmol, 9)} {f(r.equiv, 6, 3)}  {r.read_as or ''}"
             )
             if r.theoretical_g is not None:
                 y = f", yield {r.yield_pct:.1f} %" if r.yield_pct is not None else ""
-                lines.append(f"  {'':24s} theoretical {r.theoretical_g:.4g} g{y}")
+                from .units import fmt_mass
+
+                lines.append(f"  {'':24s} theoretical {fmt_mass(r.theoretical_g)}{y}")
         if st.limiting is not None:
             lines.append(f"  limiting reagent: {st.limiting.component.label}")
         if st.concentration_m:
-            lines.append(f"  concentration: {st.concentration_m:.3g} M in {st.total_volume_ml:.4g} mL")
+            from .units import fmt_volume
+
+            lines.append(f"  concentration: {st.concentration_m:.3g} M in {fmt_volume(st.total_volume_ml)}")
         if st.atom_economy_pct is not None:
             lines.append(f"  atom economy {st.atom_economy_pct:.1f} %" + (f", PMI {st.pmi:.1f}, E-factor {st.e_factor:.1f}" if st.pmi else ""))
     return "\n".join(lines)
