@@ -42,12 +42,7 @@ def _amounts(pairs: Sequence[str]) -> dict[str, str]:
         key, sep, value = (pair[:cut], "=", pair[cut + 1 :]) if cut > 0 else pair.partition("=")
         if not sep or not key.strip():
             raise ChemcheckError(f"--amount takes KEY=VALUE (the component as written, then the amount), got '{pair}'")
-        key = key.strip()
-        if key in out:
-            raise ChemcheckError(
-                f"--amount given twice for '{key}' ('{out[key]}' and '{value.strip()}'): give each component once"
-            )
-        out[key] = value.strip()
+        out[key.strip()] = value.strip()
     return out
 
 

@@ -122,12 +122,6 @@ def test_error_messages_never_echo_control_characters():
     assert str(ParseError("bad", text="a\u202eb\r")) == "'a\\u202eb\\x0d': bad"
 
 
-def test_duplicate_amount_keys_are_refused_naming_both():
-    proc = run("check", "CCN.CC(=O)Cl>Et3N>CCNC(C)=O", "-a", "CCN=1 mmol", "-a", "CCN=2 mmol")
-    assert proc.returncode == 2
-    assert "'CCN'" in proc.stderr and "'1 mmol'" in proc.stderr and "'2 mmol'" in proc.stderr
-
-
 @pytest.mark.parametrize(
     "smiles,position",
     # the same ring-closure digit twice on one atom would bond it to itself: the second digit
