@@ -15,7 +15,7 @@ import { NO_REVIEWER, type ReviewSettings, acksOf, notify, reviewerFromSettings,
 import { el } from './dom';
 import type { Finding, Report } from './payload';
 import { type Acknowledgement, SEVERITY_ORDER, SEVERITY_WORD, ackForm, findingKey } from './render';
-import { isValidReport } from './validate';
+import { readReport } from './validate';
 
 const PLUGIN_ID = 'chemcheck-jupyterlab:review';
 const MIME = 'application/vnd.chemcheck.report+json';
@@ -38,9 +38,9 @@ export function collectReports(panel: NotebookPanel): Entry[] {
     }
     const outputs = (cell.model as unknown as { outputs: { length: number; get: (i: number) => { data: Record<string, unknown> } } }).outputs;
     for (let i = 0; i < outputs.length; i++) {
-      const data = outputs.get(i).data[MIME];
-      if (isValidReport(data)) {
-        out.push({ cellIndex, cell, report: data, acks: acksOf(cell.model) });
+      const report = readReport(outputs.get(i).data[MIME]).report; // checked against the schema
+      if (report) {
+        out.push({ cellIndex, cell, report, acks: acksOf(cell.model) });
       }
     }
   });
