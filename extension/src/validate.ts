@@ -6,9 +6,8 @@
 // one malformed output shows a short notice and never breaks the notebook, the other outputs or
 // the panel.
 //
-// The check covers the schema keywords the payload schema uses: type, properties, required,
-// items, minItems/maxItems, enum, const, anyOf, $ref (local), minimum, additionalProperties
-// (as a schema for maps). `additionalProperties: false` is not enforced: a field this version
+// The check covers the keywords in KNOWN_KEYWORDS ($ref: local references only;
+// additionalProperties: as a schema for maps). `additionalProperties: false` is not enforced: a field this version
 // does not know is never read, so a payload from a newer chemcheck with an added field still
 // renders. Numbers must be finite.
 
@@ -16,6 +15,17 @@ import { el } from './dom';
 import { REPORT_SCHEMA, type Report } from './payload';
 
 type Schema = Record<string, unknown>;
+
+/**
+ * The schema keywords this check applies (and `additionalProperties: false`, read as allowed).
+ * A unit test fails when report.schema.json starts using another one, so that the schema and
+ * this check cannot drift apart silently.
+ */
+export const KNOWN_KEYWORDS = [
+  '$defs', '$ref', 'type', 'properties', 'required', 'additionalProperties', 'items', 'minItems',
+  'maxItems', 'enum', 'const', 'anyOf', 'allOf', 'oneOf', 'minimum', 'maximum', 'exclusiveMinimum',
+  'exclusiveMaximum', 'minLength', 'maxLength', 'pattern'
+];
 
 /** At most this many problems are collected (the first ones are what a reader needs). */
 const MAX_ERRORS = 8;
@@ -126,9 +136,41 @@ class Checker {
         return fail(`expected ${types.join(' or ')}, found ${typeOf(value)}`);
       }
     }
+    if (Array.isArray(schema.allOf) && !(schema.allOf as Schema[]).every(option => this.check(value, option, path, quiet))) {
+      return false;
+    }
+    if (Array.isArray(schema.oneOf)) {
+      const matching = (schema.oneOf as Schema[]).filter(option => this.check(value, option, path, true)).length;
+      if (matching !== 1) {
+        return fail(matching ? 'matches more than one of the allowed forms' : 'matches none of the allowed forms');
+      }
+    }
     let ok = true;
-    if (typeof value === 'number' && typeof schema.minimum === 'number' && value < schema.minimum) {
-      ok = fail(`expected at least ${schema.minimum}, found ${value}`);
+    if (typeof value === 'number') {
+      if (typeof schema.minimum === 'number' && value < schema.minimum) {
+        ok = fail(`expected at least ${schema.minimum}, found ${value}`);
+      }
+      if (typeof schema.maximum === 'number' && value > schema.maximum) {
+        ok = fail(`expected at most ${schema.maximum}, found ${value}`);
+      }
+      if (typeof schema.exclusiveMinimum === 'number' && value <= schema.exclusiveMinimum) {
+        ok = fail(`expected more than ${schema.exclusiveMinimum}, found ${value}`);
+      }
+      if (typeof schema.exclusiveMaximum === 'number' && value >= schema.exclusiveMaximum) {
+        ok = fail(`expected less than ${schema.exclusiveMaximum}, found ${value}`);
+      }
+    }
+    if (typeof value === 'string') {
+      const length = [...value].length; // code points, as JSON Schema counts
+      if (typeof schema.minLength === 'number' && length < schema.minLength) {
+        ok = fail(`expected at least ${schema.minLength} character(s)`);
+      }
+      if (typeof schema.maxLength === 'number' && length > schema.maxLength) {
+        ok = fail(`expected at most ${schema.maxLength} character(s)`);
+      }
+      if (typeof schema.pattern === 'string' && !new RegExp(schema.pattern, 'u').test(value)) {
+        ok = fail(`does not match ${schema.pattern}`);
+      }
     }
     if (Array.isArray(value)) {
       if (typeof schema.minItems === 'number' && value.length < schema.minItems) {

@@ -8,7 +8,8 @@ import { installDom } from './setup';
 installDom();
 
 import type { Report } from '../src/payload';
-import { UNREADABLE, isValidReport, readReport, schemaErrors, unreadableNotice } from '../src/validate';
+import { REPORT_SCHEMA } from '../src/payload';
+import { KNOWN_KEYWORDS, UNREADABLE, isValidReport, readReport, schemaErrors, unreadableNotice } from '../src/validate';
 
 // A report written out by hand in the payload's shape (a scenario of our own).
 function report(): Report {
@@ -49,6 +50,47 @@ const MALFORMED: Array<[string, Damage, string]> = [
   ['wrong schema name', r => { r.schema = 'other'; }, '$.schema: expected "chemcheck.report"'],
   ['infinite mass', r => { r.components[0].mw = Infinity; }, '$.components[0].mw']
 ];
+
+test('the schema uses only keywords this check applies', () => {
+  const seen = new Set<string>();
+  const walk = (node: unknown, inNames = false): void => {
+    if (Array.isArray(node)) {
+      node.forEach(n => walk(n));
+    } else if (node && typeof node === 'object') {
+      for (const [k, v] of Object.entries(node)) {
+        if (!inNames) {
+          seen.add(k);
+        }
+        // under properties and $defs the keys are names, their values schemas
+        walk(v, !inNames && (k === 'properties' || k === '$defs'));
+        if (inNames) {
+          walk(v);
+        }
+      }
+    }
+  };
+  walk(REPORT_SCHEMA);
+  const unknown = [...seen].filter(k => !KNOWN_KEYWORDS.includes(k));
+  assert.deepEqual(unknown, [], 'teach validate.ts these keywords');
+});
+
+test('bounds, lengths, patterns and one-of are applied', () => {
+  const schema = {
+    type: 'object',
+    properties: {
+      n: { type: 'number', maximum: 1, exclusiveMinimum: 0 },
+      s: { type: 'string', minLength: 2, maxLength: 3, pattern: '^[a-z]+$' },
+      o: { oneOf: [{ type: 'integer' }, { type: 'number', minimum: 5 }] }
+    }
+  };
+  assert.deepEqual(schemaErrors({ n: 0.5, s: 'ab', o: 2 }, schema), []);
+  assert.ok(schemaErrors({ n: 2 }, schema)[0].includes('at most 1'));
+  assert.ok(schemaErrors({ n: 0 }, schema)[0].includes('more than 0'));
+  assert.ok(schemaErrors({ s: 'a' }, schema)[0].includes('at least 2'));
+  assert.ok(schemaErrors({ s: 'abcd' }, schema)[0].includes('at most 3'));
+  assert.ok(schemaErrors({ s: 'A1' }, schema)[0].includes('does not match'));
+  assert.ok(schemaErrors({ o: 6 }, schema)[0].includes('more than one')); // 6 is both an integer and >= 5
+});
 
 test('a well-formed report passes', () => {
   assert.deepEqual(schemaErrors(report()), []);
