@@ -376,13 +376,14 @@ class _GitHistory:
             return None
 
     def check(self, ack: dict) -> str | None:
-        """None when the commit that first added this acknowledgement's key to the notebook has
-        the named reviewer as author; otherwise the reason it is not accepted."""
+        """None when the latest commit that changed how often this acknowledgement's key occurs
+        in the notebook (the one that added it; a removal and re-adding by someone else counts as
+        theirs) has the named reviewer as author; otherwise the reason it is not accepted."""
         if self.problem:
             return self.problem
         key = ack["finding"]
-        rel = str(self.path.relative_to(self.root)) if self.root else str(self.path)
-        proc = self._git("log", "--reverse", "--format=%H%x09%an%x09%ae", "-S", key, "--", rel, cwd=self.root)
+        # the path relative to the notebook's own folder: git resolves it whatever the symlinks
+        proc = self._git("log", "--format=%H%x09%an%x09%ae", "-S", key, "--", self.path.name, cwd=self.path.parent)
         lines = proc.stdout.strip().splitlines() if proc is not None and proc.returncode == 0 else []
         if not lines:
             return "not found in any commit (added after the last commit, or not under git)"
