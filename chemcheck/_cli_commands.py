@@ -104,6 +104,8 @@ def _review(sub) -> None:
     p.add_argument("--no-recheck", action="store_true", help="use the recorded findings, do not re-check")
     p.add_argument("--reviewers", metavar="FILE",
                    help="accept only acknowledgements by the people listed in FILE (one name a line, 'Name <email>' allowed)")
+    p.add_argument("--timeout", type=float, default=None, metavar="SECONDS",
+                   help="seconds allowed per re-check; a slower one keeps the recorded findings and says so")
     p.add_argument("--verify-git", action="store_true",
                    help="accept only acknowledgements added in a git commit whose author is the named reviewer")
     p.set_defaults(func=_run_review)
@@ -137,13 +139,16 @@ def _run_review(args) -> int:
     from .errors import ChemcheckError
     from .review import NotebookReview, read_reviewers, reviewer_name, review_notebook
 
+    if args.timeout is not None and not args.timeout > 0:
+        raise ChemcheckError(f"--timeout must be a positive number of seconds, got {args.timeout:g}")
     files = _expand(args.notebooks)
     level = args.fail_on or "warning"
     reviewers = read_reviewers(args.reviewers) if args.reviewers else None
     results: list[NotebookReview] = []
     for path in _progress(files, "review"):
         try:
-            results.append(review_notebook(path, recheck=not args.no_recheck, reviewers=reviewers, verify_git=args.verify_git))
+            results.append(review_notebook(path, recheck=not args.no_recheck, reviewers=reviewers,
+                                           verify_git=args.verify_git, timeout=args.timeout))
         except ChemcheckError as exc:
             results.append(NotebookReview(str(path), [], error=str(exc)))
     unreadable = [nb for nb in results if nb.error]

@@ -19,6 +19,7 @@ import signal
 import sys
 import threading
 from collections.abc import Iterable, Iterator
+from contextlib import contextmanager
 from concurrent.futures import ProcessPoolExecutor
 from pathlib import Path
 
@@ -26,7 +27,7 @@ from .errors import ChemcheckError
 
 __all__ = [
     "Record", "read_records", "check_record", "check_partition", "run_batch", "write_table",
-    "COLUMNS", "check_bag", "read_text", "escape_cell",
+    "COLUMNS", "check_bag", "read_text", "escape_cell", "time_limit", "TimeUp",
 ]
 
 COLUMNS = ["source", "item", "reaction", "rule", "severity", "message", "fix", "error"]
@@ -152,13 +153,31 @@ def _csv_records(p: Path, text: str) -> Iterator[Record]:
         yield {"source": str(p), "item": item, "reaction": reaction, "amounts": amounts}
 
 
-class _RowTimeout(BaseException):
-    """Raised in the checking thread when a row's time is up. A BaseException, so that no
+class TimeUp(BaseException):
+    """Raised in the checking thread when its time is up. A BaseException, so that no
     ``except Exception`` on the way swallows it."""
 
 
 def _on_alarm(signum, frame):  # pragma: no cover - timing dependent
-    raise _RowTimeout
+    raise TimeUp
+
+
+@contextmanager
+def time_limit(seconds: float | None) -> Iterator[bool]:
+    """Raise :class:`TimeUp` in the block after ``seconds``. Applied only in the process's main
+    thread (signals); yields whether it is applied. It interrupts Python code, so a single long
+    call inside RDKit ends before the block does."""
+    applied = bool(seconds) and threading.current_thread() is threading.main_thread() and hasattr(signal, "setitimer")
+    if not applied:
+        yield False
+        return
+    previous = signal.signal(signal.SIGALRM, _on_alarm)
+    signal.setitimer(signal.ITIMER_REAL, float(seconds))
+    try:
+        yield True
+    finally:
+        signal.setitimer(signal.ITIMER_REAL, 0)
+        signal.signal(signal.SIGALRM, previous)
 
 
 def _error_row(base: dict, error: str) -> dict:
@@ -183,18 +202,10 @@ def check_record(record: Record, timeout: float | None = None) -> list[dict]:
     amounts = record.get("amounts") or None
     if amounts is not None and (not isinstance(amounts, dict) or not all(isinstance(v, str) for v in amounts.values())):
         return [_error_row(base, "amounts must map each component to text like '1.2 mmol'")]
-    timed = bool(timeout) and threading.current_thread() is threading.main_thread() and hasattr(signal, "setitimer")
-    previous = None
     try:
-        if timed:
-            previous = signal.signal(signal.SIGALRM, _on_alarm)
-            signal.setitimer(signal.ITIMER_REAL, float(timeout))
-        try:
+        with time_limit(timeout):
             report = check(reaction, amounts)
-        finally:
-            if timed:
-                signal.setitimer(signal.ITIMER_REAL, 0)
-    except _RowTimeout:
+    except TimeUp:
         return [_error_row(base, f"not checked: took longer than the {timeout:g} s allowed per row (--timeout)")]
     except ChemcheckError as exc:
         return [_error_row(base, str(exc))]
@@ -202,9 +213,6 @@ def check_record(record: Record, timeout: float | None = None) -> list[dict]:
         return [_error_row(base, "the reaction is too deeply nested to check")]
     except Exception as exc:  # a record must never stop the batch
         return [_error_row(base, f"internal error: {type(exc).__name__}: {exc}")]
-    finally:
-        if timed and previous is not None:
-            signal.signal(signal.SIGALRM, previous)
     rows = [{**base, "rule": f.rule, "severity": f.severity, "message": f.message, "fix": f.fix, "error": None} for f in report.findings]
     return rows or [{**base, "rule": None, "severity": None, "message": None, "fix": None, "error": None}]
 

@@ -269,13 +269,17 @@ def _read_notebook(p: Path):
         raise NotebookError(f"{p}: not a readable notebook ({type(exc).__name__}: {exc})") from None
 
 
-def _recheck(reaction: str, amounts: dict) -> tuple[list[dict] | None, str | None]:
+def _recheck(reaction: str, amounts: dict, timeout: float | None = None) -> tuple[list[dict] | None, str | None]:
+    from .batch import TimeUp, time_limit
     from .engine import check
 
     if not reaction:
         return None, "the saved report holds no reaction"
     try:
-        return check(reaction, amounts or None).to_dict()["findings"], None
+        with time_limit(timeout):
+            return check(reaction, amounts or None).to_dict()["findings"], None
+    except TimeUp:
+        return None, f"not re-checked: took longer than the {timeout:g} s allowed (--timeout); the recorded findings are used"
     except ChemcheckError as exc:
         return None, str(exc)
     except RecursionError:
@@ -305,13 +309,15 @@ def review_notebook(
     recheck: bool = True,
     reviewers: list[str] | None = None,
     verify_git: bool = False,
+    timeout: float | None = None,
 ) -> NotebookReview:
     """Read the recorded checks of one notebook, re-check them unless ``recheck`` is false.
 
     ``reviewers``: accept only acknowledgements whose ``who`` is one of these names.
     ``verify_git``: accept only acknowledgements added in a commit whose author is the named
     reviewer (the notebook must be in a git repository). Rejected acknowledgements are listed
-    with the reason and do not count."""
+    with the reason and do not count. ``timeout``: seconds allowed per re-check (in the main
+    thread); a slower one keeps the recorded findings and says so."""
     p = Path(path)
     nb = _read_notebook(p)
     cells = nb.get("cells") if isinstance(nb, dict) else None
@@ -328,7 +334,7 @@ def review_notebook(
             reaction, amounts = _read_input(payload)
             raw = payload.get("findings")
             recorded = [c for c in (_clean_finding(f) for f in (raw if isinstance(raw, list) else [])) if c]
-            current, err = _recheck(reaction, amounts) if recheck else (None, None)
+            current, err = _recheck(reaction, amounts, timeout) if recheck else (None, None)
             rr = ReportReview(index, reaction, amounts, recorded, current, err, acks, rejected=rejected)
             if current is not None:
                 before = {_ident(f) for f in recorded}

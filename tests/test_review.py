@@ -314,3 +314,14 @@ def test_verify_git_checks_who_committed_the_acknowledgement(tmp_path):
     proc = run(str(path), "--verify-git", "--fail-on", "warning")
     assert proc.returncode == 1 and "acknowledgement not accepted" in proc.stdout
     assert run(str(path), "--fail-on", "warning").returncode == 0  # without the check, the forgery passes
+
+
+def test_recheck_timeout_keeps_the_recorded_findings(tmp_path):
+    # one microsecond: the timer fires before any re-check can finish
+    path = _notebook(tmp_path, [SHORT])
+    [r] = review_notebook(path, timeout=1e-6).reports
+    assert r.current is None and "--timeout" in r.recheck_error
+    assert [f["rule"] for f in r.open_findings("warning")] == ["acid-scavenger-short"]  # from the record
+    from chemcheck.cli import main
+
+    assert main(["review", str(path), "--timeout", "0"]) == 2
