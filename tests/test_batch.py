@@ -178,6 +178,7 @@ def test_one_bad_row_does_not_stop_the_batch(tmp_path):
     for item in ("big", "list", "broken"):
         assert table[table["item"] == item]["error"].notna().all(), item
     assert "3 could not be checked" in proc.stdout
+    assert "\r" not in proc.stderr and "reaction/s" not in proc.stderr  # no progress bar off a terminal
 
 
 def test_formula_cells_are_escaped_in_csv(tmp_path):
@@ -225,3 +226,13 @@ def test_batch_on_a_dask_cluster_matches_the_local_run(csv_file, tmp_path, monke
     assert remote.read_text() == local.read_text()
     proc = _cli(str(csv_file), "-o", str(tmp_path / "x.csv"), "--scheduler", "tcp://127.0.0.1:9")
     assert proc.returncode == 2 and "no Dask scheduler answers" in proc.stderr
+
+
+def test_progress_bar_on_a_terminal(csv_file, monkeypatch, capsys):
+    # the bar is drawn (by tqdm) only when stderr is a terminal
+    monkeypatch.setattr(sys.stderr, "isatty", lambda: True, raising=False)
+    run_batch(read_records(csv_file), workers=1, progress=True)
+    assert "4/4" in capsys.readouterr().err
+    monkeypatch.setattr(sys.stderr, "isatty", lambda: False, raising=False)
+    run_batch(read_records(csv_file), workers=1, progress=True)
+    assert capsys.readouterr().err == ""

@@ -177,6 +177,7 @@ def test_one_unreadable_notebook_among_many(tmp_path):
         assert f"ok{i}.ipynb: 1 report(s)" in proc.stdout
     assert "broken.ipynb: could not be read" in proc.stdout
     assert "1 of 4 notebook(s) could not be read" in proc.stderr
+    assert "\r" not in proc.stderr and "notebook/s" not in proc.stderr  # no progress bar off a terminal
     data = json.loads(run(str(tmp_path), "--json").stdout)
     assert [bool(d.get("error")) for d in data] == [True, False, False, False]
 
