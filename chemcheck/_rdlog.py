@@ -1,15 +1,17 @@
 """Capture RDKit's log so it never reaches the user's stderr.
 
 RDKit writes parse and sanitization problems to its own log (stderr by default) and returns
-``None`` or raises a bare exception. ``captured()`` routes the log to a Python logger for the
-duration of a block and hands back the text so it can become a clear error message.
+``None`` or raises a bare exception. From the moment chemcheck reads its first molecule the log
+goes through Python's ``logging``: inside ``captured()`` the lines are handed back so they can
+become a clear error message; elsewhere (drawing, 3D, worker threads, the user's own RDKit calls
+in the same process) they go to the logger ``chemcheck.rdkit``, which is silent unless the
+application configures logging (``logging.basicConfig()`` shows them again).
 """
 
 from __future__ import annotations
 
 import logging
 import re
-import sys
 import threading
 from collections.abc import Iterator
 from contextlib import contextmanager
@@ -20,6 +22,8 @@ _lock = threading.Lock()
 _installed = False
 _local = threading.local()
 _STAMP = re.compile(r"^\[\d\d:\d\d:\d\d\] ")
+_forward = logging.getLogger("chemcheck.rdkit")
+_forward.addHandler(logging.NullHandler())  # no "last resort" printing to stderr
 
 
 class _Collector(logging.Handler):
@@ -28,9 +32,8 @@ class _Collector(logging.Handler):
         message = _STAMP.sub("", record.getMessage())
         if sink is not None:
             sink.append(message)
-        elif record.levelno >= logging.WARNING:
-            # Outside chemcheck's own calls RDKit keeps talking to stderr, as it did before.
-            sys.stderr.write(message + "\n")
+        else:
+            _forward.log(record.levelno, "%s", message)
 
 
 def _install() -> None:
@@ -42,8 +45,7 @@ def _install() -> None:
             return
         rdBase.LogToPythonLogger()
         logger = logging.getLogger("rdkit")
-        # RDKit attaches its own stderr handler; ours replaces it and keeps its behaviour
-        # (warnings and errors to stderr) outside chemcheck's calls.
+        # RDKit attaches its own stderr handler; ours replaces it.
         for handler in list(logger.handlers):
             if isinstance(handler, logging.StreamHandler) and not isinstance(handler, _Collector):
                 logger.removeHandler(handler)
@@ -64,3 +66,6 @@ def captured() -> Iterator[list[str]]:
         yield lines
     finally:
         _local.sink = previous
+
+
+_install()  # at import: no RDKit line of a chemcheck call reaches stderr, whichever thread makes it

@@ -60,6 +60,23 @@ def _interface_body(node: dict, indent: str = "  ") -> str:
     return "\n".join(lines)
 
 
+_NOT_FOR_VALIDATION = ("description", "title", "$id", "$schema", "$comment", "examples")
+
+
+def _for_validation(node):
+    """The schema without its prose: what extension/src/validate.ts checks payloads against."""
+    if isinstance(node, dict):
+        return {
+            k: _for_validation(v) if k not in ("properties", "$defs")
+            else {name: _for_validation(sub) for name, sub in v.items()}
+            for k, v in node.items()
+            if k not in _NOT_FOR_VALIDATION
+        }
+    if isinstance(node, list):
+        return [_for_validation(x) for x in node]
+    return node
+
+
 def generate() -> str:
     s = schema()
     out = [HEADER]
@@ -72,6 +89,10 @@ def generate() -> str:
             out.append(f"export interface {name} {_interface_body(node)}\n")
         else:
             out.append(f"export type {name} = {_ts(node)};\n")
+    out.append(
+        "\n/** The schema itself, without its prose, for the runtime check in validate.ts. */\n"
+        f"export const REPORT_SCHEMA: unknown = {json.dumps(_for_validation(s), separators=(',', ':'), sort_keys=False)};\n"
+    )
     return "".join(out)
 
 

@@ -8,14 +8,30 @@ from __future__ import annotations
 
 import argparse
 import json
+import math
 import os
 import re
 import sys
 from collections.abc import Sequence
 
-from .errors import ChemcheckError
+from .errors import ChemcheckError, printable
 
 __all__ = ["main"]
+
+
+def dumps(value, **kw) -> str:
+    """Strict JSON: a non-finite number (which JSON has no spelling for) is written as null."""
+    return json.dumps(_finite(value), allow_nan=False, **kw)
+
+
+def _finite(value):
+    if isinstance(value, float):
+        return value if math.isfinite(value) else None
+    if isinstance(value, dict):
+        return {k: _finite(v) for k, v in value.items()}
+    if isinstance(value, (list, tuple)):
+        return [_finite(v) for v in value]
+    return value
 
 
 def _amounts(pairs: Sequence[str]) -> dict[str, str]:
@@ -37,10 +53,15 @@ def _cmd_check(args) -> int:
 
     report = check(args.reaction, _amounts(args.amount) or None)
     if args.json:
-        print(json.dumps(report.to_dict(), indent=2))
+        print(dumps(report.to_dict(), indent=2))
     else:
-        print(report.to_text())
+        print(printable_lines(report.to_text()))
     return _fail_code(report.findings, args.fail_on)
+
+
+def printable_lines(text: str) -> str:
+    """Text for the terminal: line breaks kept, every other control character escaped."""
+    return "\n".join(printable(line) for line in str(text).split("\n"))
 
 
 def _fail_code(findings, fail_on: str | None) -> int:
@@ -91,7 +112,7 @@ def main(argv: Sequence[str] | None = None) -> int:
     try:
         return int(args.func(args) or 0)
     except ChemcheckError as exc:
-        print(f"chemcheck: {exc}", file=sys.stderr)
+        print(f"chemcheck: {printable(exc)}", file=sys.stderr)
         return 2
     except KeyboardInterrupt:
         print("chemcheck: interrupted", file=sys.stderr)
@@ -102,7 +123,7 @@ def main(argv: Sequence[str] | None = None) -> int:
         if os.environ.get("CHEMCHECK_DEBUG"):
             raise
         print(
-            f"chemcheck: internal error ({type(exc).__name__}: {exc}); "
+            f"chemcheck: internal error ({type(exc).__name__}: {printable(exc)}); "
             "set CHEMCHECK_DEBUG=1 for the traceback and report it",
             file=sys.stderr,
         )

@@ -2,11 +2,38 @@
 
 from __future__ import annotations
 
-__all__ = ["ChemcheckError", "ParseError", "AmountError", "LimitError"]
+import re
+
+__all__ = ["ChemcheckError", "ParseError", "AmountError", "LimitError", "printable"]
+
+# C0 and C1 control characters, DEL, and the Unicode format characters that reorder or hide
+# text (bidirectional overrides and isolates, zero-width marks, the BOM). Echoed back raw they
+# could move the terminal's cursor, recolour it, or make a message read differently from what it
+# says.
+_UNSAFE = re.compile("[\x00-\x1f\x7f-\x9f\u200b-\u200f\u2028-\u202e\u2060-\u2069\ufeff]")
+
+
+def printable(text: object) -> str:
+    """``text`` with every control or format character written as a visible escape (``\\x1b``,
+    ``\\u202e``), so that user input echoed in a message or on a terminal is shown, not obeyed."""
+    s = str(text)
+    if not _UNSAFE.search(s):
+        return s
+
+    def esc(m: re.Match) -> str:
+        c = ord(m.group(0))
+        return f"\\x{c:02x}" if c < 0x100 else f"\\u{c:04x}"
+
+    return _UNSAFE.sub(esc, s)
 
 
 class ChemcheckError(Exception):
-    """Base of every error chemcheck raises on purpose."""
+    """Base of every error chemcheck raises on purpose.
+
+    Its text never carries control characters: whatever the input held is shown escaped."""
+
+    def __str__(self) -> str:
+        return printable(super().__str__())
 
 
 class ParseError(ValueError, ChemcheckError):

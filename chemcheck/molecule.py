@@ -28,6 +28,7 @@ _VALENCE = re.compile(r"valence for atom # ?(\d+) (\w+)")
 _KEKULE = re.compile(r"Unkekulized atoms:\s*([\d ]+)")
 _AROMATIC_NONRING = re.compile(r"non-ring atom (\d+) marked aromatic")
 _POSITION = re.compile(r"around position (\d+)")
+_SELF_RING = re.compile(r"duplicated ring closure (%?\d+) bonds atom (\d+) to itself")
 
 
 @dataclass(frozen=True)
@@ -58,6 +59,14 @@ def _explain_syntax(smiles: str, log: list[str], component: int | None, text: st
         what = "'(' is not closed" if ch == "(" else "')' has no matching '('"
         _raise(what, smiles, sc.unbalanced_branch, component=component, text=text)
     for line in log:
+        m = _SELF_RING.search(line)
+        if m:
+            # 'Cl22': the same ring-closure digit twice on one atom would bond it to itself
+            label, start = m.group(1), _atom_offset(smiles, int(m.group(2))) or 0
+            first = smiles.find(label, start)
+            second = smiles.find(label, first + len(label)) if first >= 0 else -1
+            _raise(f"ring closure {label.lstrip('%')} opened and closed on the same atom", smiles,
+                   second if second >= 0 else None, component=component, text=text)
         m = _POSITION.search(line)
         if m:
             pos = int(m.group(1))

@@ -113,3 +113,126 @@ def test_cli(tmp_path, csv_file):
 def test_bad_sources():
     with pytest.raises(chemcheck.ChemcheckError, match="no such file"):
         list(read_records("/nonexistent/x.csv"))
+
+
+# --- careless files: encodings, bad rows, formula cells, time per row ---------------------------
+
+
+def _cli(*args, cwd=None):
+    import os
+
+    env = {**os.environ, "PYTHONPATH": str(__import__("pathlib").Path(__file__).resolve().parent.parent)}
+    return subprocess.run([sys.executable, "-m", "chemcheck", "batch", *args], capture_output=True, text=True, timeout=300, env=env, cwd=cwd)
+
+
+def test_csv_with_byte_order_mark(tmp_path):
+    # what a spreadsheet saves as "CSV UTF-8": the file starts with EF BB BF
+    p = tmp_path / "bom.csv"
+    p.write_bytes("\ufeffreaction,name\nCCCCN.CC(=O)Cl>>CCCCNC(C)=O,first\n".encode("utf-8"))
+    notes = []
+    [rec] = list(read_records(p, notes))
+    assert rec["reaction"] == "CCCCN.CC(=O)Cl>>CCCCNC(C)=O" and rec["item"] == "first" and notes == []
+
+
+def test_csv_in_windows_1252_is_read_with_a_note(tmp_path):
+    p = tmp_path / "cp.csv"
+    # "µ" is B5 and "–" (en dash) is 96 in Windows-1252; neither byte sequence is UTF-8
+    p.write_bytes("reaction,name,amounts\nCCCCN.CC(=O)Cl>>CCCCNC(C)=O,run – 5 µL,\n".encode("cp1252"))
+    notes = []
+    [rec] = list(read_records(p, notes))
+    assert rec["item"] == "run – 5 µL"
+    assert len(notes) == 1 and "read as Windows-1252" in notes[0]
+
+
+@pytest.mark.parametrize(
+    "cell,expected",
+    [
+        ('"[1, 2]"', "not a list"),
+        ('"""1.2 mmol"""', "not a string"),
+        ("3", "not a number"),
+        ('"{""CCCCN"": 1.2}"', "must be text"),
+        ('"{nope"', "amounts is not JSON"),
+    ],
+)
+def test_amounts_cells_are_checked_per_row(tmp_path, cell, expected):
+    p = tmp_path / "a.csv"
+    p.write_text(f"reaction,amounts\nCCCCN.CC(=O)Cl>>CCCCNC(C)=O,{cell}\nCCCCN.CC(=O)Cl>Et3N>CCCCNC(C)=O,\n")
+    recs = list(read_records(p))
+    assert len(recs) == 2
+    assert expected in recs[0]["error"]
+    assert "error" not in recs[1]
+
+
+def test_one_bad_row_does_not_stop_the_batch(tmp_path):
+    p = tmp_path / "mixed.csv"
+    big = "C" * 200_000  # a 200 KB cell: beyond the csv module's default field limit
+    p.write_text(f'reaction,name,amounts\nCCCCN.CC(=O)Cl>>CCCCNC(C)=O,ok,\n{big},big,\n"CCN>>CC",list,"[1]"\nNCc1cccc1>>C,broken,\n')
+    out = tmp_path / "out.csv"
+    proc = _cli(str(p), "-o", str(out), "-j", "1")
+    assert proc.returncode == 2, proc.stderr  # rows failed; the table is still written
+    import pandas as pd
+
+    table = pd.read_csv(out)
+    assert set(table["item"]) == {"ok", "big", "list", "broken"}
+    assert "acid-scavenger-short" in set(table[table["item"] == "ok"]["rule"])
+    for item in ("big", "list", "broken"):
+        assert table[table["item"] == item]["error"].notna().all(), item
+    assert "3 could not be checked" in proc.stdout
+    assert "\r" not in proc.stderr and "reaction/s" not in proc.stderr  # no progress bar off a terminal
+
+
+def test_formula_cells_are_escaped_in_csv(tmp_path):
+    from chemcheck.batch import escape_cell
+
+    hostile = '=HYPERLINK("http://example.invalid","click")'
+    rows = [{"source": "s", "item": hostile, "reaction": "+1", "rule": None, "severity": None, "message": "@SUM(A1)", "fix": "-2", "error": "\tx"}]
+    out = write_table(rows, tmp_path / "t.csv")
+    import csv as _csv
+
+    [row] = list(_csv.DictReader(out.open()))
+    assert row["item"] == "'" + hostile
+    assert [row["reaction"], row["message"], row["fix"], row["error"]] == ["'+1", "'@SUM(A1)", "'-2", "'\tx"]
+    assert escape_cell("CCN") == "CCN" and escape_cell(None) is None
+    # JSON keeps the text as it is
+    assert json.loads(write_table(rows, tmp_path / "t.json").read_text())[0]["item"] == hostile
+
+
+def test_timeout_per_row(csv_file):
+    # one microsecond: the timer fires before any check can finish, so every row says so
+    rows = run_batch(read_records(csv_file), workers=1, progress=False, timeout=1e-6)
+    assert {r["item"] for r in rows} == {n for _, n in ROWS}
+    assert all("--timeout" in r["error"] for r in rows)
+    # without a timeout the same rows are checked
+    assert any(r["rule"] for r in run_batch(read_records(csv_file), workers=1, progress=False))
+
+
+def test_timeout_must_be_positive(csv_file, tmp_path):
+    proc = _cli(str(csv_file), "-o", str(tmp_path / "x.csv"), "--timeout", "0")
+    assert proc.returncode == 2 and "--timeout must be a positive" in proc.stderr
+
+
+def test_batch_on_a_dask_cluster_matches_the_local_run(csv_file, tmp_path, monkeypatch):
+    distributed = pytest.importorskip("distributed")
+    from pathlib import Path
+
+    # the workers import chemcheck from this tree
+    monkeypatch.setenv("PYTHONPATH", str(Path(__file__).resolve().parent.parent))
+    local = tmp_path / "local.csv"
+    assert _cli(str(csv_file), "-o", str(local), "-j", "1").returncode == 2  # the broken row
+    with distributed.LocalCluster(n_workers=2, threads_per_worker=1, processes=True, dashboard_address=None) as cluster:
+        remote = tmp_path / "remote.csv"
+        proc = _cli(str(csv_file), "-o", str(remote), "--scheduler", cluster.scheduler_address)
+        assert proc.returncode == 2, proc.stderr
+    assert remote.read_text() == local.read_text()
+    proc = _cli(str(csv_file), "-o", str(tmp_path / "x.csv"), "--scheduler", "tcp://127.0.0.1:9")
+    assert proc.returncode == 2 and "no Dask scheduler answers" in proc.stderr
+
+
+def test_progress_bar_on_a_terminal(csv_file, monkeypatch, capsys):
+    # the bar is drawn (by tqdm) only when stderr is a terminal
+    monkeypatch.setattr(sys.stderr, "isatty", lambda: True, raising=False)
+    run_batch(read_records(csv_file), workers=1, progress=True)
+    assert "4/4" in capsys.readouterr().err
+    monkeypatch.setattr(sys.stderr, "isatty", lambda: False, raising=False)
+    run_batch(read_records(csv_file), workers=1, progress=True)
+    assert capsys.readouterr().err == ""

@@ -86,3 +86,126 @@ def test_random_notebook_files(tmp_path_factory, content):
         review_notebook(path)
     except NotebookError as exc:
         assert "x.ipynb" in str(exc)
+
+
+# --- hostile saved notebooks, careless CSV files, control characters, odd metadata --------------
+
+JSON_VALUES = st.recursive(
+    st.none() | st.booleans() | st.integers(-3, 3) | st.floats(allow_nan=False, allow_infinity=False) | st.text(max_size=6),
+    lambda c: st.lists(c, max_size=3) | st.dictionaries(st.text(max_size=5), c, max_size=3),
+    max_leaves=8,
+)
+_PAYLOAD = None
+
+
+def _payload():
+    global _PAYLOAD
+    if _PAYLOAD is None:
+        _PAYLOAD = json.loads(json.dumps(chemcheck.check("CCCCN.CC(=O)Cl>>CCCCNC(C)=O").to_dict()))
+    return json.loads(json.dumps(_PAYLOAD))
+
+
+def _paths(node, prefix=()):
+    yield prefix
+    if isinstance(node, dict):
+        for k, v in node.items():
+            yield from _paths(v, (*prefix, k))
+    elif isinstance(node, list):
+        for i, v in enumerate(node[:3]):
+            yield from _paths(v, (*prefix, i))
+
+
+def _damage(payload, where, value):
+    """Replace (or delete, when value is the string '<del>') the field at ``where``."""
+    if not where:
+        return value
+    node = payload
+    for part in where[:-1]:
+        node = node[part]
+    if value == "<del>" and isinstance(node, dict):
+        del node[where[-1]]
+    else:
+        node[where[-1]] = value
+    return payload
+
+
+@FAST
+@given(st.data())
+def test_damaged_saved_reports(tmp_path_factory, data):
+    from chemcheck.cli import main
+    from chemcheck.review import review_notebook
+
+    payload = _payload()
+    paths = list(_paths(payload))
+    for _ in range(data.draw(st.integers(1, 3))):
+        where = data.draw(st.sampled_from(paths))
+        try:
+            payload = _damage(payload, where, data.draw(JSON_VALUES | st.just("<del>")))
+        except (KeyError, IndexError, TypeError):
+            pass  # an earlier change removed the place
+        paths = list(_paths(payload)) if isinstance(payload, (dict, list)) else [()]
+    meta = data.draw(JSON_VALUES)
+    nb = {"nbformat": 4, "nbformat_minor": 5, "metadata": {}, "cells": [
+        {"cell_type": "code", "id": "a", "source": "", "execution_count": None, "metadata": {"chemcheck": meta},
+         "outputs": [{"output_type": "display_data", "metadata": {}, "data": {chemcheck.MIME_TYPE: payload}}]}]}
+    path = tmp_path_factory.mktemp("nb") / "x.ipynb"
+    path.write_text(json.dumps(nb))
+    review_notebook(path, recheck=False)
+    assert main(["review", "--no-recheck", str(path)]) in (0, 2)
+    assert main(["review", "--no-recheck", "--json", "--fail-on", "warning", str(path)]) in (0, 1, 2)
+
+
+CSV_PIECES = ["reaction", "amounts", "name", "amount:CCN", ",", '"', "\n", "\r\n", "\ufeff", "CCN", "CC(=O)Cl>>CC",
+              "{}", '{"CCN": "1 mmol"}', "[1]", "3", "=HYPERLINK(1)", "µ", "\x00", "\x1b[31m", " ", "\u202e"]
+
+
+@FAST
+@given(st.lists(st.sampled_from(CSV_PIECES), max_size=30), st.sampled_from(["utf-8", "utf-8-sig", "cp1252", "utf-16"]))
+def test_careless_csv_files(tmp_path_factory, pieces, encoding):
+    from chemcheck.batch import escape_cell, read_records
+
+    text = "reaction,amounts,name\n" + "".join(pieces)
+    path = tmp_path_factory.mktemp("csv") / "x.csv"
+    try:
+        path.write_bytes(text.encode(encoding))
+    except UnicodeEncodeError:
+        path.write_bytes(text.encode("utf-8"))
+    try:
+        records = list(read_records(path, []))
+    except ChemcheckError:
+        return  # a file refused as a whole (no 'reaction' column): a clear error
+    for r in records:
+        assert isinstance(r["reaction"], str)
+        assert r.get("error") or isinstance(r["amounts"], dict)
+        for v in r.values():
+            if isinstance(v, str) and v and v[0] in "=+-@":
+                assert escape_cell(v).startswith("'")
+
+
+@FAST
+@given(st.text(alphabet=st.characters(codec="utf-8", categories=["Cc", "Cf", "Lu", "Nd", "Po"]), max_size=20))
+def test_errors_never_echo_control_characters(text):
+    import unicodedata
+
+    try:
+        chemcheck.check("CCN." + text + ">>C", {text: "1 " + text} if text else None)
+    except ChemcheckError as exc:
+        msg = str(exc)
+        assert not any(unicodedata.category(ch) == "Cc" or ch in "\u202e\u202d\u2066\u2067\u2068\u2069\u200f\u200e" for ch in msg), msg
+
+
+@FAST
+@given(JSON_VALUES)
+def test_acknowledging_never_loses_metadata(meta):
+    from chemcheck.review import add_acknowledgement, read_acknowledgements
+
+    cell_meta = {"chemcheck": meta, "other": meta}
+    ack = {"finding": "r#1", "rule": "r", "who": "A. Reviewer", "when": "t", "note": ""}
+    try:
+        after = add_acknowledgement(cell_meta, ack)
+    except ChemcheckError:
+        return  # both keys hold something else: refused, nothing written
+    assert after["other"] == meta
+    if meta is not None and after["chemcheck"] != meta:  # only a list of acknowledgements grew (null holds nothing)
+        assert {k: v for k, v in after["chemcheck"].items() if k != "acknowledgements"} == {k: v for k, v in meta.items() if k != "acknowledgements"}
+    assert read_acknowledgements(after)[-1] == ack

@@ -7,13 +7,15 @@ import type { JupyterFrontEnd, JupyterFrontEndPlugin } from '@jupyterlab/applica
 import { ILabShell } from '@jupyterlab/application';
 import type { Cell } from '@jupyterlab/cells';
 import { INotebookTracker, NotebookActions, type NotebookPanel } from '@jupyterlab/notebook';
+import { showErrorMessage } from '@jupyterlab/apputils';
 import { ISettingRegistry } from '@jupyterlab/settingregistry';
 import { Widget } from '@lumino/widgets';
 
-import { METADATA_KEY, type ReviewSettings, notify, parseAcks, setBridge, withAck } from './ack';
+import { NO_REVIEWER, type ReviewSettings, acksOf, notify, reviewerFromSettings, setBridge, storeAck } from './ack';
 import { el } from './dom';
 import type { Finding, Report } from './payload';
-import { type Acknowledgement, SEVERITY_ORDER, SEVERITY_WORD, ackForm, findingKey, isReport } from './render';
+import { type Acknowledgement, SEVERITY_ORDER, SEVERITY_WORD, ackForm, findingKey } from './render';
+import { readReport } from './validate';
 
 const PLUGIN_ID = 'chemcheck-jupyterlab:review';
 const MIME = 'application/vnd.chemcheck.report+json';
@@ -36,9 +38,9 @@ export function collectReports(panel: NotebookPanel): Entry[] {
     }
     const outputs = (cell.model as unknown as { outputs: { length: number; get: (i: number) => { data: Record<string, unknown> } } }).outputs;
     for (let i = 0; i < outputs.length; i++) {
-      const data = outputs.get(i).data[MIME];
-      if (isReport(data)) {
-        out.push({ cellIndex, cell, report: data, acks: parseAcks(cell.model.getMetadata(METADATA_KEY)) });
+      const report = readReport(outputs.get(i).data[MIME]).report; // checked against the schema
+      if (report) {
+        out.push({ cellIndex, cell, report, acks: acksOf(cell.model) });
       }
     }
   });
@@ -172,13 +174,7 @@ const plugin: JupyterFrontEndPlugin<void> = {
   ) => {
     let settings: ReviewSettings = { ...DEFAULTS };
 
-    const reviewer = (): string => {
-      if (settings.reviewerName) {
-        return settings.reviewerName;
-      }
-      const identity = (app.serviceManager as unknown as { user?: { identity?: { display_name?: string; name?: string } | null } }).user?.identity;
-      return identity?.display_name || identity?.name || 'anonymous reviewer';
-    };
+    const reviewer = (): string | null => reviewerFromSettings(settings);
 
     const cellOf = (node: HTMLElement): Cell | null => {
       let found: Cell | null = null;
@@ -192,24 +188,29 @@ const plugin: JupyterFrontEndPlugin<void> = {
       return found;
     };
 
-    const acknowledgeCell = (cell: Cell, finding: Finding, key: string, note: string): void => {
-      const ack: Acknowledgement = { finding: key, rule: finding.rule, who: reviewer(), when: new Date().toISOString(), note };
-      cell.model.setMetadata(METADATA_KEY, withAck(cell.model.getMetadata(METADATA_KEY), ack));
+    const acknowledgeCell = (cell: Cell, finding: Finding, key: string, note: string): boolean => {
+      const who = reviewer();
+      if (!who) {
+        void showErrorMessage('chemcheck: who is acknowledging?', NO_REVIEWER);
+        return false;
+      }
+      const ack: Acknowledgement = { finding: key, rule: finding.rule, who, when: new Date().toISOString(), note };
+      const stored = storeAck(cell.model, ack);
       notify();
+      return stored;
     };
 
     setBridge({
       acknowledgementsFor: node => {
         const cell = cellOf(node);
-        return cell ? parseAcks(cell.model.getMetadata(METADATA_KEY)) : null;
+        return cell ? acksOf(cell.model) : null;
       },
       acknowledge: (node, finding, key, note) => {
         const cell = cellOf(node);
         if (!cell) {
           return false;
         }
-        acknowledgeCell(cell, finding, key, note);
-        return true;
+        return acknowledgeCell(cell, finding, key, note);
       },
       reviewer,
       settings: () => settings

@@ -4,9 +4,10 @@ import type { IRenderMime } from '@jupyterlab/rendermime-interfaces';
 import { Widget } from '@lumino/widgets';
 
 import { getBridge, onAcksChanged } from './ack';
-import { el } from './dom';
 import { MOL3D_MIME, mol3dFactory } from './mol3d';
-import { isReport, renderReport } from './render';
+import type { Report } from './payload';
+import { renderReport } from './render';
+import { readReport, unreadableNotice as unreadable } from './validate';
 
 export const MIME_TYPE = 'application/vnd.chemcheck.report+json';
 
@@ -35,12 +36,22 @@ export class ReportView extends Widget implements IRenderMime.IRenderer {
   }
 
   private _redraw(): void {
-    const data = this._data;
+    // one unreadable output shows a notice; it never throws into the notebook
     this.node.replaceChildren();
-    if (!isReport(data)) {
-      this.node.appendChild(el('p', 'cc-muted', 'This chemcheck output could not be read (unknown format).'));
+    const { report, errors } = readReport(this._data);
+    if (!report) {
+      this.node.appendChild(unreadable(errors));
       return;
     }
+    try {
+      this._draw(report);
+    } catch (err) {
+      console.warn('chemcheck: report not rendered', err);
+      this.node.replaceChildren(unreadable([String(err)]));
+    }
+  }
+
+  private _draw(data: Report): void {
     const bridge = getBridge();
     const acks = bridge?.acknowledgementsFor(this.node) ?? null;
     this.node.appendChild(
