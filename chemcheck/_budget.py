@@ -53,7 +53,7 @@ def candidate_cap(heavy_atoms: int) -> int:
 class Budget:
     """Work budget of one check: what was skipped, and the deadline of the rules."""
 
-    deadline_s: float = DEADLINE_S
+    deadline_s: float = field(default_factory=lambda: DEADLINE_S)
     start: float = field(default_factory=time.perf_counter)
     skipped: list[str] = field(default_factory=list)
 
