@@ -21,6 +21,7 @@ __all__ = [
     "BASICITY_WORK",
     "CANDIDATE_WORK",
     "MAX_CANDIDATES",
+    "MAX_DRAWN_ATOMS",
     "DEADLINE_S",
 ]
 
@@ -39,6 +40,10 @@ BASICITY_WORK = 100_000
 # and on their number.
 CANDIDATE_WORK = 4_000
 MAX_CANDIDATES = 16
+
+# Heavy atoms of one drawn structure: 2D layout and drawing grow faster than linearly (a chain
+# of 400 hydrazine N takes 3 s); a larger one is shown as its formula in a box.
+MAX_DRAWN_ATOMS = 250
 
 # Total time for the rules of one check; the rules not started by then are skipped and named.
 DEADLINE_S = 1.5

@@ -238,3 +238,15 @@ def test_3d_embeds_in_the_worker():
 def test_3d_of_a_dummy_atom_is_a_2d_drawing_with_a_note():
     v = view3d("[*+]N", 0)
     assert v.molblock is None and "dummy atom" in v._repr_mimebundle_()["text/plain"]
+
+
+def test_a_structure_above_the_drawing_limit_is_shown_as_its_formula():
+    import xml.etree.ElementTree as ET
+
+    from chemcheck._budget import MAX_DRAWN_ATOMS
+    from chemcheck.display.bundle import mimebundle
+
+    report = chemcheck.check("N" * 400 + ".CC(=O)Cl")  # a chain of 400 hydrazine N: H402N400 (Hill order)
+    bundle = mimebundle(report)
+    assert f"H402N400: 400 heavy atoms, not drawn (limit {MAX_DRAWN_ATOMS})" in bundle["image/svg+xml"]
+    ET.fromstring(bundle["image/svg+xml"])  # still one well-formed SVG
