@@ -156,9 +156,14 @@ def reactive_groups(mol: Chem.Mol) -> list[GroupMatch]:
 
 
 def _nitrogen_sites(mol: Chem.Mol) -> list[NitrogenSite]:
+    n_count = sum(1 for a in mol.GetAtoms() if a.GetAtomicNum() == 7)
+    if not n_count:
+        return []
     _ensure_rings(mol)
     kind_of: dict[int, str] = {}
     for cls in NITROGEN_CLASSES:
+        if len(kind_of) == n_count:  # first class wins: every nitrogen has its class already
+            break
         for smarts in cls.smarts:
             for match in mol.GetSubstructMatches(compiled(smarts), uniquify=False):
                 idx = match[0]

@@ -63,6 +63,8 @@ class Context:
             return []
         mol = component.mol
         nitrogens = sum(1 for a in mol.GetAtoms() if a.GetAtomicNum() == 7)
+        if not nitrogens:  # one site per nitrogen: none to compute
+            return []
         if nitrogens * mol.GetNumHeavyAtoms() > BASICITY_WORK:
             budget_of(self).skip(
                 f"the basicity of {component.label} ({nitrogens} nitrogens in {mol.GetNumHeavyAtoms()} heavy atoms)"
