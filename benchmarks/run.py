@@ -6,6 +6,8 @@ Measures, over a generated corpus (benchmarks/corpus.py):
 * ``check()`` with the SVG scheme (the notebook bundle), for six-component reactions;
 * batch throughput (reactions per second, one process) and peak memory;
 * ``import chemcheck`` against ``import rdkit.Chem``.
+* hostile inputs within the documented limits (``benchmarks/limits.py``), each in a fresh
+  process: seconds and peak memory to answer or refuse;
 * the same on real patent reactions when the development set is present (``benchmarks/real.py``):
   check/bare interleaved, cold-cache throughput in a fresh process, the cost of each stage.
 Writes benchmarks/results/bench.json. It reports; it never fails.
@@ -167,11 +169,19 @@ def main(n: int = 1200) -> dict:
         "import_chemcheck_s": round(imp_cc, 3),
         "import_overhead_s": round(imp_cc - imp_rdkit, 3),
         "limits": limits,
+        "hostile": _hostile(),
         "real": _real(),
         "cpu": os.cpu_count(),
         "goals": GOALS,
     }
     return result
+
+
+def _hostile() -> dict:
+    """Hostile inputs of the work budget, each in a fresh process (benchmarks/limits.py)."""
+    import limits as hostile
+
+    return hostile.main()
 
 
 def _real() -> dict | None:
