@@ -8,7 +8,7 @@ from .errors import ChemcheckError
 from .findings import Finding
 from .reaction import Reaction, parse_reaction
 from .report import Report
-from ._budget import Budget, budget_of
+from ._budget import MAPPING_CAP_MARK, Budget, budget_of
 from .rules import Context, registry
 
 __all__ = ["check"]
@@ -137,6 +137,9 @@ def check(reaction: str | Reaction, amounts: dict[str, str] | None = None) -> Re
                 )
             )
     sections = _basicity_sections(ctx)
+    amap = ctx.understanding.amap
+    if amap.source == "none" and amap.note and MAPPING_CAP_MARK in amap.note:
+        budget.skip(f"the atom map ({amap.note})")
     if budget.skipped:
         findings.append(_budget_finding(budget))
     findings.sort(key=lambda f: _SEVERITY_ORDER[f.severity])

@@ -134,14 +134,29 @@ def test_too_many_rings_are_refused_before_ring_perception():
     assert report.components[0].mol.GetRingInfo().NumRings() == 361
 
 
-def test_a_large_polyamine_skips_its_basicity_and_says_so():
-    # 665 secondary and 2 primary amines in 1,997 heavy atoms, with acetyl chloride
+@pytest.fixture
+def no_deadline(monkeypatch):
+    """The caps alone: a slow or busy machine must not change what these tests see."""
+    import chemcheck._budget as budget
+
+    monkeypatch.setattr(budget, "DEADLINE_S", 600.0)
+
+
+def test_a_large_polyamine_skips_its_basicity_and_map_and_says_so(no_deadline):
+    # 665 secondary and 2 primary amines in 1,995 heavy atoms, with acetyl chloride
     amine = "NC" + "CNC" * 664 + "N"
     report = chemcheck.check(amine + ".CC(=O)Cl>>CC(=O)" + amine)
     note = report.by_rule("check-budget-reached")
     assert len(note) == 1 and note[0].severity == "info"
     assert "the basicity of" in note[0].message and "666 nitrogens" in note[0].message
+    assert "the atom map" in note[0].message and "limit of 300" in note[0].message
     assert not [row for row in report.extra["basicity"] if row["component"] == 0]
+    assert report.extra["understanding"]["mapping"]["source"] == "none"
+
+
+def test_a_drug_sized_reaction_is_mapped():
+    report = chemcheck.check("NCCc1ccc(O)c(O)c1.CC(=O)Cl>CCN(CC)CC>CC(=O)NCCc1ccc(O)c(O)c1")
+    assert report.extra["understanding"]["mapping"]["source"] not in ("none",)
 
 
 def test_a_drug_sized_amine_keeps_its_basicity_and_no_note():
@@ -164,7 +179,7 @@ def _count_attach(monkeypatch):
     return built
 
 
-def test_equivalent_amines_give_one_predicted_product(monkeypatch):
+def test_equivalent_amines_give_one_predicted_product(monkeypatch, no_deadline):
     # tris(2-aminoethyl)amine: three equivalent primary amines, one mono-acetyl product
     built = _count_attach(monkeypatch)
     report = chemcheck.check("NCCN(CCN)CCN.CC(=O)Cl>CCN(CC)CC>CC(=O)NCCN(CCN)CCN")
@@ -173,7 +188,7 @@ def test_equivalent_amines_give_one_predicted_product(monkeypatch):
     assert len(pred) == 1 and len(pred[0]["candidates"]) == 1
 
 
-def test_the_chemoselectivity_enumeration_is_capped(monkeypatch):
+def test_the_chemoselectivity_enumeration_is_capped(monkeypatch, no_deadline):
     from rdkit import Chem
 
     from chemcheck._budget import candidate_cap
