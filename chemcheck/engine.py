@@ -8,6 +8,7 @@ from .errors import ChemcheckError
 from .findings import Finding
 from .reaction import Reaction, parse_reaction
 from .report import Report
+from ._budget import MAPPING_CAP_MARK, Budget, budget_of
 from .rules import Context, registry
 
 __all__ = ["check"]
@@ -79,6 +80,7 @@ def check(reaction: str | Reaction, amounts: dict[str, str] | None = None) -> Re
         if salts:
             rxn = parse_reaction(text, join=_join_keys(amounts))
     ctx = Context(rxn, amounts)
+    budget = budget_of(ctx)
     for comp in rxn.components:
         comp.kind = ctx.perception(comp).kind if comp.role == "agent" else None
         if not comp.name:
@@ -135,7 +137,12 @@ def check(reaction: str | Reaction, amounts: dict[str, str] | None = None) -> Re
                 )
             )
     strict = bool(os.environ.get("CHEMCHECK_STRICT"))
-    for r in registry().values():
+    rules = list(registry().values())
+    for k, r in enumerate(rules):
+        if budget.expired():  # the rules not started by the deadline are named, not run
+            left = [x.id for x in rules[k:]]
+            budget.skip(f"{len(left)} rule{'s' if len(left) > 1 else ''} not started within {budget.deadline_s:g} s ({', '.join(left)})")
+            break
         try:
             findings.extend(r.check(ctx) or ())
         except ChemcheckError:
@@ -152,6 +159,12 @@ def check(reaction: str | Reaction, amounts: dict[str, str] | None = None) -> Re
                     fix="Please report this reaction to the chemcheck developers.",
                 )
             )
+    sections = _basicity_sections(ctx)
+    amap = ctx.understanding.amap
+    if amap.source == "none" and amap.note and MAPPING_CAP_MARK in amap.note:
+        budget.skip(f"the atom map ({amap.note})")
+    if budget.skipped:
+        findings.append(_budget_finding(budget))
     findings.sort(key=lambda f: _SEVERITY_ORDER[f.severity])
     report = Report(
         reaction=rxn,
@@ -160,7 +173,7 @@ def check(reaction: str | Reaction, amounts: dict[str, str] | None = None) -> Re
         perceptions={c.index: ctx.perception(c) for c in rxn.components},
         balance=ctx.balance,
     )
-    report.extra.update(_basicity_sections(ctx))
+    report.extra.update(sections)
     report.extra["understanding"] = ctx.understanding.to_dict()
     report.roles = dict(ctx.understanding.roles)
     preds = getattr(ctx, "predictions", None) or []
@@ -206,6 +219,20 @@ def _word_for(perception, role: str) -> str:
         if site.kind in _N_WORDS:
             return _N_WORDS[site.kind]
     return "compound"
+
+
+def _budget_finding(budget: Budget) -> Finding:
+    """The info note naming the work the check left out to answer within its budget."""
+    return Finding(
+        rule="check-budget-reached",
+        severity="info",
+        title="Part of the check was not done",
+        message="To answer within its work budget, the check left out: " + "; ".join(budget.skipped) + ". "
+        "Findings that depend on these parts may be missing.",
+        atoms=(),
+        fix="Check the parts named by hand, or split the structure into smaller pieces (a repeat unit, "
+        "the reacting fragment) and check those.",
+    )
 
 
 def _basicity_sections(ctx: Context) -> dict:

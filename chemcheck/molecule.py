@@ -13,7 +13,7 @@ from dataclasses import dataclass
 from rdkit import Chem
 
 from . import _rdlog, _smiles
-from .errors import ParseError
+from .errors import LimitError, ParseError
 
 __all__ = ["ReadMol", "read_smiles", "METALS"]
 
@@ -79,6 +79,18 @@ def _atom_offset(smiles: str, atom_index: int) -> int | None:
     return positions[atom_index] if 0 <= atom_index < len(positions) else None
 
 
+def _check_rings(mol: Chem.Mol, smiles: str, component: int | None) -> None:
+    """Refuse, before ring perception, a molecule with more rings than the work budget allows
+    (perception on densely fused graphs takes seconds and hundreds of MB)."""
+    from ._budget import MAX_RINGS
+
+    rings = mol.GetNumBonds() - mol.GetNumAtoms() + len(Chem.GetMolFrags(mol))
+    if rings > MAX_RINGS:
+        where = f"component {component} " if component is not None else ""
+        shown = smiles if len(smiles) <= 40 else smiles[:40] + "…"
+        raise LimitError(f"{where}'{shown}': {rings} rings; the limit is {MAX_RINGS}")
+
+
 def read_smiles(
     smiles: str, *, component: int | None = None, text: str | None = None
 ) -> ReadMol:
@@ -98,6 +110,7 @@ def read_smiles(
         _explain_syntax(smiles, log, component, text)
     if mol.GetNumAtoms() == 0:
         raise ParseError("no atoms", component=component, text=text if text is not None else smiles)
+    _check_rings(mol, smiles, component)
     work = Chem.Mol(mol)
     with _rdlog.captured() as log:
         try:

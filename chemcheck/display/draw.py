@@ -15,6 +15,7 @@ from rdkit.Chem import rdDepictor
 from rdkit.Chem.Draw import rdMolDraw2D
 
 from .. import _rdlog
+from .._budget import MAX_DRAWN_ATOMS
 
 __all__ = ["draw_component", "draw_scheme", "Scheme", "SEVERITY_RGBA"]
 
@@ -48,6 +49,8 @@ def draw_component(
     size: tuple[int, int] | None = None,
     atom_indices: bool = False,
 ) -> Drawn:
+    if mol.GetNumHeavyAtoms() > MAX_DRAWN_ATOMS:  # layout and drawing grow faster than linearly
+        return _not_drawn(mol, size)
     highlights = highlights or {}
     work = Chem.Mol(mol)
     for a in work.GetAtoms():
@@ -95,6 +98,26 @@ def draw_component(
             p = d.GetDrawCoords(i)
             atoms.append((round(p.x, 1), round(p.y, 1)))
     return Drawn(_XML_HEAD.sub("", d.GetDrawingText()), w, h, atoms)
+
+
+def _not_drawn(mol: Chem.Mol, size: tuple[int, int] | None) -> Drawn:
+    """A box with the formula in place of a structure too large to draw within the budget."""
+    from rdkit.Chem.rdMolDescriptors import CalcMolFormula
+
+    w, h = size or (220, 80)
+    with _rdlog.captured():
+        try:
+            formula = CalcMolFormula(mol)
+        except (RuntimeError, ValueError):
+            formula = "structure"
+    text = f"{formula}: {mol.GetNumHeavyAtoms()} heavy atoms, not drawn (limit {MAX_DRAWN_ATOMS})"
+    svg = (
+        f'<svg xmlns="http://www.w3.org/2000/svg" width="{w}" height="{h}" viewBox="0 0 {w} {h}">'
+        f'<rect x="1" y="1" width="{w - 2}" height="{h - 2}" fill="none" stroke="#737373" stroke-dasharray="4 3"/>'
+        f'<text x="{w / 2:.0f}" y="{h / 2:.0f}" font-size="10" text-anchor="middle" fill="#737373">{escape(text)}</text>'
+        "</svg>"
+    )
+    return Drawn(svg, w, h, [(w / 2, h / 2)] * mol.GetNumAtoms())
 
 
 @dataclass

@@ -136,11 +136,25 @@ def _sites_canonical(smiles: str) -> tuple:
     return tuple(_nitrogen_sites(m)), tuple(_reactive_groups(m))
 
 
+_SITES_ATTR = "_chemcheck_sites"
+_GROUPS_ATTR = "_chemcheck_groups"
+
+
+def _on_object(mol: Chem.Mol, attr: str, compute) -> list:
+    """For molecules without a canonical key (the largest): the result kept on the object."""
+    hit = getattr(mol, attr, None)
+    if hit is not None and hit[0] == _shape(mol):
+        return list(hit[1])
+    value = compute(mol)
+    _mark(mol, attr, (_shape(mol), tuple(value)))
+    return value
+
+
 def nitrogen_sites(mol: Chem.Mol) -> list[NitrogenSite]:
     """One site per nitrogen atom, classified by the first catalog class that matches it."""
     key = _canonical_key(mol)
     if key is None:
-        return _nitrogen_sites(mol)
+        return _on_object(mol, _SITES_ATTR, _nitrogen_sites)
     smi, order = key
     sites, _ = _sites_canonical(smi)
     return sorted((replace(s, atom_index=order[s.atom_index]) for s in sites), key=lambda s: s.atom_index)
@@ -149,16 +163,21 @@ def nitrogen_sites(mol: Chem.Mol) -> list[NitrogenSite]:
 def reactive_groups(mol: Chem.Mol) -> list[GroupMatch]:
     key = _canonical_key(mol)
     if key is None:
-        return _reactive_groups(mol)
+        return _on_object(mol, _GROUPS_ATTR, _reactive_groups)
     smi, order = key
     _, groups = _sites_canonical(smi)
     return [GroupMatch(g.name, tuple(order[i] for i in g.atoms), g.detail) for g in groups]
 
 
 def _nitrogen_sites(mol: Chem.Mol) -> list[NitrogenSite]:
+    n_count = sum(1 for a in mol.GetAtoms() if a.GetAtomicNum() == 7)
+    if not n_count:
+        return []
     _ensure_rings(mol)
     kind_of: dict[int, str] = {}
     for cls in NITROGEN_CLASSES:
+        if len(kind_of) == n_count:  # first class wins: every nitrogen has its class already
+            break
         for smarts in cls.smarts:
             for match in mol.GetSubstructMatches(compiled(smarts), uniquify=False):
                 idx = match[0]

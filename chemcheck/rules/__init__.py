@@ -18,6 +18,7 @@ from collections.abc import Callable, Iterable
 from dataclasses import dataclass
 from functools import cached_property, lru_cache
 
+from ..errors import ChemcheckError
 from ..findings import Finding, Severity
 from ..perceive import Perception, perceive
 from ..reaction import Component, Reaction
@@ -49,11 +50,39 @@ class Context:
         """The basicity sites of a component (pKa of each nitrogen's conjugate acid)."""
         s = self._sites.get(component.index)
         if s is None:
-            from ..basicity import basic_sites
-
-            s = basic_sites(component.mol) if component.sanitization == "full" else []
-            self._sites[component.index] = s
+            s = self._sites[component.index] = self._basic_sites(component)
         return s
+
+    def _basic_sites(self, component: Component) -> list:
+        """Within the work budget (nitrogens x heavy atoms); beyond it, or when the model
+        cannot read the structure, no sites, and the budget names what was skipped."""
+        from .._budget import BASICITY_WORK, budget_of
+        from ..basicity import basic_sites
+
+        if component.sanitization != "full":
+            return []
+        mol = component.mol
+        nitrogens = sum(1 for a in mol.GetAtoms() if a.GetAtomicNum() == 7)
+        if not nitrogens:  # one site per nitrogen: none to compute
+            return []
+        if nitrogens * mol.GetNumHeavyAtoms() > BASICITY_WORK:
+            budget_of(self).skip(
+                f"the basicity of {component.label} ({nitrogens} nitrogens in {mol.GetNumHeavyAtoms()} heavy atoms)"
+            )
+            return []
+        try:
+            return basic_sites(mol)
+        except ChemcheckError:
+            raise
+        except (ArithmeticError, LookupError, StopIteration, ValueError, RuntimeError):
+            # a structure the basicity model cannot read (an internal error, not the user's):
+            # the rest of the check goes on without its values, and says so
+            import os
+
+            if os.environ.get("CHEMCHECK_STRICT"):
+                raise
+            budget_of(self).skip(f"the basicity of {component.label} (the model could not read its structure)")
+            return []
 
     @cached_property
     def stoichiometry(self):

@@ -804,6 +804,43 @@ def _site_score(mol, site) -> float:
     return score
 
 
+def _selectivity_sites(ctx: Context, sub, sites, oxygens) -> list[tuple[int, float, str]]:
+    """The sites worth a predicted product, best first, within the work budget: one per set of
+    symmetry-equivalent atoms (they give the same compound), then at most as many as the cap
+    for the substrate's size allows; the sites left out are named in the budget."""
+    from .._budget import budget_of, candidate_cap
+
+    mol = sub.mol
+    out = [
+        (s_.atom_index, _site_score(mol, s_), f"acylation at the {s_.kind.replace('_', ' ')} N (pKa {s_.pka:.1f})")
+        for s_ in sites
+    ]
+    for o in oxygens:
+        phenol = any(x.GetIsAromatic() for x in mol.GetAtomWithIdx(o).GetNeighbors())
+        out.append((o, -2.0 if phenol else -3.0, f"acylation at the {'phenol' if phenol else 'alcohol'} O"))
+    stereo = any(a.GetChiralTag() != Chem.ChiralType.CHI_UNSPECIFIED for a in mol.GetAtoms()) or any(
+        b.GetStereo() != Chem.BondStereo.STEREONONE for b in mol.GetBonds()
+    )
+    if len(out) > 2 and not stereo:  # with stereo marks, equivalent sites may give stereoisomers
+        ranks = list(Chem.CanonicalRankAtoms(mol, breakTies=False))
+        seen: set[int] = set()
+        unique = []
+        for item in out:
+            if ranks[item[0]] not in seen:
+                seen.add(ranks[item[0]])
+                unique.append(item)
+        out = unique
+    out.sort(key=lambda item: -item[1])  # stable: the order among equal scores is kept
+    cap = candidate_cap(mol.GetNumHeavyAtoms())
+    if len(out) > cap:
+        budget_of(ctx).skip(
+            f"the products of acylation at {len(out) - cap} of the {len(out)} distinct sites of {sub.label} "
+            f"(the {cap} most nucleophilic were compared)"
+        )
+        out = out[:cap]
+    return out
+
+
 @rule(id="acylation-chemoselectivity", title="Acylation drawn at the less nucleophilic site", severity="warning")
 def acylation_chemoselectivity(ctx: Context):
     """With several nucleophilic sites in one molecule, nitrogen and the more nucleophilic amine
@@ -867,15 +904,10 @@ def acylation_chemoselectivity(ctx: Context):
         ]
         if frag is not None and (len(sites) > 1 or oxygens):
             cands = []
-            for s_ in sites:
-                smi = attach(sub.mol, s_.atom_index, *frag)
+            for atom, score, reason in _selectivity_sites(ctx, sub, sites, oxygens):
+                smi = attach(sub.mol, atom, *frag)
                 if smi:
-                    cands.append(Candidate(smi, 0, "", f"acylation at the {s_.kind.replace('_', ' ')} N (pKa {s_.pka:.1f})", _site_score(sub.mol, s_), atoms=(s_.atom_index,)))
-            for o in oxygens:
-                smi = attach(sub.mol, o, *frag)
-                phenol = any(x.GetIsAromatic() for x in sub.mol.GetAtomWithIdx(o).GetNeighbors())
-                if smi:
-                    cands.append(Candidate(smi, 0, "", f"acylation at the {'phenol' if phenol else 'alcohol'} O", -2.0 if phenol else -3.0, atoms=(o,)))
+                    cands.append(Candidate(smi, 0, "", reason, score, atoms=(atom,)))
             ranked = rank_labels(cands, minor_gap=1.0, none_gap=6.0)
             drawn_cand = None
             if ranked:

@@ -166,6 +166,11 @@ def _compute(rxn: Reaction, timeout_s: float) -> AtomMap:
         return _none(rxn, "the reaction has no products to map")
     if not any(a.GetAtomicNum() > 1 for c in rxn.products for a in c.mol.GetAtoms()):
         return _none(rxn, "the products have no heavy atoms to map")
+    from .._budget import MAX_MAPPED_ATOMS, mapping_cap_note
+
+    heavy = sum(c.mol.GetNumHeavyAtoms() for c in rxn.reactants + rxn.products)
+    if heavy > MAX_MAPPED_ATOMS:  # the work budget of a check (chemcheck/_budget.py)
+        return _none(rxn, mapping_cap_note(heavy))
     note = None
     try:
         pairs = _indigo_map(rxn, timeout_s)
