@@ -1,5 +1,6 @@
 """The durable bundle, drawings, 3D, the check pad and the cell magic (no kernel needed)."""
 
+import re
 import xml.etree.ElementTree as ET
 from html import escape
 
@@ -21,14 +22,52 @@ def test_bundle_has_every_static_type():
     ET.fromstring(b["image/svg+xml"])  # well-formed SVG
 
 
+def _said(f, text: str, esc=lambda x: x) -> bool:
+    """A finding is in the report: whole, or (hazard cautions) without the deferral sentence,
+    which the Safety section says once."""
+    body = f.message[: -len(f.fix)].rstrip() if f.fix and f.message.endswith(f.fix) else f.message
+    return esc(body) in text
+
+
 def test_every_finding_is_in_the_html_and_the_text():
     report = chemcheck.check(FLAGGED)
     b = report._repr_mimebundle_()
     for f in report.findings:
-        assert escape(f.message) in b["text/html"]
-        assert f.message in b["text/plain"]
+        assert _said(f, b["text/html"], escape), f.rule
+        assert _said(f, b["text/plain"]), f.rule
     html = b["text/html"].lower()
-    assert "<script" not in html and "<style" not in html and " style=" not in html
+    assert "<script" not in html and "<style" not in html
+    # inline colours only (severity badges and borders): nothing that positions or hides content
+    for decl in re.findall(r' style="([^"]*)"', html):
+        for prop in re.findall(r"([a-z-]+)\s*:", decl):
+            assert prop in {
+                "background-color", "color", "padding", "padding-left", "border-radius", "font-weight",
+                "border-left", "margin", "text-align", "white-space", "overflow-x", "max-width",
+                "height", "opacity", "font-style", "list-style", "padding-left",
+            }, prop
+
+
+def test_safety_sentence_is_said_once_and_fixes_never_repeat_the_message():
+    # acetyl chloride and AlCl3: two hazard classes, one SDS / safety-review sentence
+    b = chemcheck.check(FLAGGED)._repr_mimebundle_()
+    for kind in ("text/html", "text/plain"):
+        assert b[kind].count("institution") == 1, kind
+    assert "Fix:</em> Check the SDS" not in b["text/html"]
+
+
+def test_notes_are_not_acknowledged_and_the_missing_by_product_is_drawn():
+    from chemcheck.display.html import render_html
+
+    report = chemcheck.check("NCc1ccccc1.CC(=O)Cl>CCN(CC)CC>CC(=O)NCc1ccccc1")
+    b = report._repr_mimebundle_()
+    payload = b[chemcheck.MIME_TYPE]
+    assert report.by_rule("unbalanced-equation")
+    assert payload["drawing"]["by_products"] == ["HCl"]
+    assert "+ HCl" in b["image/svg+xml"]
+    html = render_html(payload, acknowledgements=[])
+    # the note is folded into the Balance section, not listed as a finding to acknowledge
+    assert "Not acknowledged" not in html
+    assert "HCl is not drawn among the products" in html.split("<summary><strong>Balance")[1]
 
 
 def test_payload_carries_the_inputs_so_the_check_can_be_repeated():

@@ -24,6 +24,8 @@ export interface Report {
   /** pairs of amines that a pH window separates in the workup */
   separations?: Array<string>;
   understanding?: Understanding;
+  /** display: each component's compound number (1, 2 … reactants and products; a, b … agents), its label in messages and tables, and its atoms' element symbols */
+  labels?: Array<CompoundLabel>;
 }
 
 export interface Input {
@@ -176,6 +178,10 @@ export interface Drawing {
   width: number;
   height: number;
   components: Array<ComponentDrawing>;
+  /** by-products missing from the equation, drawn greyed after the products */
+  by_products?: Array<string>;
+  /** bonds formed, marked in the scheme: pairs of atom centres in scheme coordinates */
+  centre?: Array<[[number, number], [number, number]]>;
 }
 
 export interface ComponentDrawing {
@@ -190,6 +196,10 @@ export interface ComponentDrawing {
   atoms: Array<[number, number]>;
   /** 3D coordinates (V2000 molfile with hydrogens), when embedded */
   molblock?: string | null;
+  /** the bold compound number drawn under the structure */
+  number?: string;
+  /** each atom's element label box in scheme coordinates [x, y, width, height], or null for an unlabelled carbon */
+  label_box?: Array<Array<number> | null>;
 }
 
 export type AtomRef = [number, number];
@@ -220,4 +230,11 @@ export interface Understanding {
   component: number;
   role: string;
 }>;
+}
+
+export interface CompoundLabel {
+  component: number;
+  number: string;
+  label: string;
+  elements: Array<string>;
 }
