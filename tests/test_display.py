@@ -186,3 +186,61 @@ def test_magic_prints_one_line_on_bad_input(capsys):
     chemcheck_cell("", "CCN.NCc1ccccc>>C")
     err = capsys.readouterr().err
     assert err.strip().startswith("chemcheck: component 2") and "Traceback" not in err
+
+
+def _notebook_with_a_recorded_check(tmp_path):
+    import nbformat
+
+    from chemcheck.review import finding_key
+
+    report = chemcheck.check(FLAGGED)
+    bundle = report._repr_mimebundle_()
+    nb = nbformat.v4.new_notebook()
+    cell = nbformat.v4.new_code_cell("chemcheck.check(...)", execution_count=2)
+    cell.outputs = [nbformat.v4.new_output("display_data", data=bundle)]
+    f = report.findings[0]
+    assert f.severity == "error"
+    cell.metadata["chemcheck"] = {
+        "acknowledgements": [
+            {
+                "finding": finding_key(f.rule, f.message, f.atoms),
+                "rule": f.rule,
+                "who": "R. Reviewer",
+                "when": "2026-12-04T18:40:00.000Z",
+                "note": "3 equiv AlCl3 planned",
+            }
+        ]
+    }
+    nb.cells = [nbformat.v4.new_markdown_cell("# plan"), cell]
+    path = tmp_path / "plan.ipynb"
+    nbformat.write(nb, str(path))
+    return path
+
+
+def test_export_shows_acknowledgements_and_severity_colours(tmp_path):
+    from chemcheck.export import export_notebook
+
+    out = export_notebook(_notebook_with_a_recorded_check(tmp_path))
+    html = out.read_text()
+    assert "Acknowledged by R. Reviewer, 4 Dec 2026, 18:40 UTC: 3 equiv AlCl3 planned" in html
+    assert "#c62828" in html  # the error badge keeps its colour without the extension's CSS
+    assert html.count("Not acknowledged") == 1  # the second error; notes are never asked for
+
+
+def test_nbconvert_runs_the_exporter_and_the_cli_writes_the_same(tmp_path):
+    import os
+    import subprocess
+    import sys
+
+    from chemcheck.cli import main
+
+    path = _notebook_with_a_recorded_check(tmp_path)
+    env = {**os.environ, "PYTHONPATH": os.getcwd()}
+    subprocess.run(
+        [sys.executable, "-m", "nbconvert", "--to", "chemcheck.export.ChemcheckHTMLExporter",
+         "--output", "via-nbconvert", str(path)],
+        check=True, env=env, capture_output=True,
+    )
+    assert "Acknowledged by R. Reviewer" in (tmp_path / "via-nbconvert.html").read_text()
+    assert main(["export", str(path), "-o", str(tmp_path / "via-cli.html")]) == 0
+    assert "Acknowledged by R. Reviewer" in (tmp_path / "via-cli.html").read_text()
