@@ -244,3 +244,15 @@ def test_nbconvert_runs_the_exporter_and_the_cli_writes_the_same(tmp_path):
     assert "Acknowledged by R. Reviewer" in (tmp_path / "via-nbconvert.html").read_text()
     assert main(["export", str(path), "-o", str(tmp_path / "via-cli.html")]) == 0
     assert "Acknowledged by R. Reviewer" in (tmp_path / "via-cli.html").read_text()
+
+
+def test_check_pad_saves_a_readable_line_not_the_widget_repr(monkeypatch):
+    import IPython.display
+
+    shown = []
+    monkeypatch.setattr(IPython.display, "display", lambda *a, **k: shown.append((a, k)))
+    p = chemcheck.pad("CCCCN.CC(=O)Cl>Et3N>CCCCNC(C)=O")
+    p._ipython_display_()
+    widget_bundle = shown[0][0][0]
+    assert "application/vnd.jupyter.widget-view+json" in widget_bundle
+    assert "VBox(" not in widget_bundle["text/plain"] and "CCCCN.CC(=O)Cl" in widget_bundle["text/plain"]

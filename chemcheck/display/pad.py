@@ -172,11 +172,20 @@ class CheckPad:
             self._record_handle.update(self._report)
         return self._report
 
+    def static_text(self) -> str:
+        """What the pad shows where no widget runs (a saved notebook, an export)."""
+        text = self.reaction.value.strip() or "(empty)"
+        return f"chemcheck pad for {text}: live only; the recorded check is the output below"
+
     def _ipython_display_(self) -> None:
         from IPython.display import display
 
         self.live = True
-        display(self.box)
+        # the widget's own text would be "VBox(children=(Text(…": saved notebooks and exports
+        # show this line instead, and the recorded check below is the static report
+        bundle = dict(self.box._repr_mimebundle_() or {})
+        bundle["text/plain"] = self.static_text()
+        display(bundle, raw=True)
         # the place where Record writes: an ordinary output of this cell
         self._record_handle = display({"text/plain": "(no check recorded yet: press Record check)"}, raw=True, display_id=True)
 
