@@ -93,7 +93,7 @@ def where(finding: dict, comps: dict[int, Compound]) -> str:
         c = comps.get(ci)
         if c is None:
             continue
-        symbols = [c.elements[a] if a < len(c.elements) else "atom" for a in atoms]
+        symbols = [c.elements[a] if a < len(c.elements) else f"atom {a + 1}" for a in atoms]
         names = ", ".join(dict.fromkeys(symbols)) if len(set(symbols)) < len(symbols) else ", ".join(symbols)
         parts.append(f"{names} of {c.label}")
     return "; ".join(parts)
