@@ -9,7 +9,7 @@ import { ICommandPalette, InputDialog } from '@jupyterlab/apputils';
 import type { Cell, ICodeCellModel } from '@jupyterlab/cells';
 import { INotebookTracker, NotebookActions, type NotebookPanel } from '@jupyterlab/notebook';
 import { ISettingRegistry } from '@jupyterlab/settingregistry';
-import { Widget } from '@lumino/widgets';
+import { SplitPanel, Widget } from '@lumino/widgets';
 
 import { METADATA_KEY, type ReviewSettings, notify, parseAcks, setBridge, withAck } from './ack';
 import { el } from './dom';
@@ -112,6 +112,45 @@ class ReviewPanel extends Widget {
     this.addClass('cc-review');
     this.node.tabIndex = 0;
     this._filter = bridge.settings().defaultFilter;
+  }
+
+  protected onAfterShow(): void {
+    this.widen();
+    this.refresh();
+  }
+
+  /**
+   * The sidebar opens at about 250 px, too narrow for finding titles: the first time the panel
+   * is shown, widen it to about 380 px (at most 40 % of the window). It stays resizable.
+   */
+  widen(): void {
+    if (this._widened) {
+      return;
+    }
+    let split: Widget | null = this.parent;
+    while (split && !(split instanceof SplitPanel)) {
+      split = split.parent;
+    }
+    if (!split) {
+      return;
+    }
+    const panel = split as SplitPanel;
+    const total = panel.node.getBoundingClientRect().width;
+    const index = panel.widgets.findIndex(w => w.node.contains(this.node));
+    if (!total || index < 0) {
+      return;
+    }
+    this._widened = true;
+    const sizes = panel.relativeSizes();
+    const want = Math.min(380, 0.4 * total) / total;
+    if (sizes[index] >= want) {
+      return;
+    }
+    const main = sizes.indexOf(Math.max(...sizes.filter((_, i) => i !== index)));
+    const delta = want - sizes[index];
+    sizes[index] += delta;
+    sizes[main] -= delta;
+    panel.setRelativeSizes(sizes);
   }
 
   set filter(value: ReviewSettings['defaultFilter']) {
@@ -218,6 +257,7 @@ class ReviewPanel extends Widget {
   }
 
   private _filter: ReviewSettings['defaultFilter'];
+  private _widened = false;
 }
 
 const plugin: JupyterFrontEndPlugin<void> = {
