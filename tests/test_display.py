@@ -256,3 +256,48 @@ def test_check_pad_saves_a_readable_line_not_the_widget_repr(monkeypatch):
     widget_bundle = shown[0][0][0]
     assert "application/vnd.jupyter.widget-view+json" in widget_bundle
     assert "VBox(" not in widget_bundle["text/plain"] and "CCCCN.CC(=O)Cl" in widget_bundle["text/plain"]
+
+
+def test_table_headers_carry_units_that_fit_the_scale():
+    from chemcheck.display.present import fmt_number, stoich_table
+
+    # a 100 g batch in 1.25 L of dichloromethane (a demo scenario of our own)
+    report = chemcheck.check(
+        "NCc1ccccc1.CC(=O)Cl>CCN(CC)CC.ClCCl>CC(=O)NCc1ccccc1",
+        {"NCc1ccccc1": "107 g", "CC(=O)Cl": "1.1 equiv", "CCN(CC)CC": "1.5 equiv", "ClCCl": "1.25 L"},
+    )
+    payload = report._repr_mimebundle_()[chemcheck.MIME_TYPE]
+    st = stoich_table(payload)
+    headers = [c.header for c in st.columns]
+    assert headers == ["M (g/mol)", "Equiv", "Amount (mol)", "Mass (g)", "Volume (L)", "Theoretical (g)"]
+    amount = st.columns[2].cells
+    # benzylamine 107 g / 107.15 g/mol (RDKit average mass) = 0.9986 mol; DCM 1.25 L x 1.318 g/mL
+    # / 84.93 g/mol = 19.4 mol, never "1.94e+04 mmol"
+    assert amount[0] == "0.999" and amount[3] == "19.4"
+    assert [c.label for c in st.compounds][:2] == ["amine 1", "acetyl chloride (2)"]
+    assert report.table.columns.tolist()[:3] == ["role", "formula", "mw"]  # the DataFrame keeps its columns
+    assert [fmt_number(x) for x in (1.25, 10.99, 310.4, 0.0451)] == ["1.25", "11.0", "310", "0.0451"]
+
+
+def test_highlight_halos_sit_under_the_labels_and_clear_them():
+    from chemcheck.display.draw import SEVERITY_RGBA, draw_component
+
+    mol = chemcheck.check("Nc1ccccc1").components[0].mol
+    d = draw_component(mol, {0: SEVERITY_RGBA["error"]})
+    halo = d.svg.index('class="cc-halo"')
+    label = d.svg.index("class='atom-0'")
+    assert halo < label  # drawn first: the label is painted over it
+    m = re.search(r'class="cc-halo" cx="([\d.]+)" cy="([\d.]+)" r="([\d.]+)"[^>]*stroke-width="([\d.]+)"', d.svg)
+    cx, cy, r, w = map(float, m.groups())
+    x, y, bw, bh = d.label_boxes[0]
+    inner = r - w / 2
+    assert all(((px - cx) ** 2 + (py - cy) ** 2) ** 0.5 < inner for px, py in ((x, y), (x + bw, y), (x, y + bh), (x + bw, y + bh)))
+
+
+def test_one_bond_length_for_every_molecule_of_a_scheme():
+    payload = chemcheck.check("CCCCCCCCCCN.CC(=O)Cl>>CCCCCCCCCCNC(C)=O")._repr_mimebundle_()[chemcheck.MIME_TYPE]
+    lengths = []
+    for comp in payload["drawing"]["components"]:
+        (x0, y0), (x1, y1) = comp["atoms"][0], comp["atoms"][1]  # atoms 0-1 are bonded in each
+        lengths.append(((x1 - x0) ** 2 + (y1 - y0) ** 2) ** 0.5)
+    assert max(lengths) - min(lengths) < 1.0, lengths

@@ -78,7 +78,7 @@ def _label_boxes(svg: str, n: int) -> list[tuple[float, float, float, float] | N
 
 
 def halo_radius(xy: tuple[float, float], box, bond_px: float = BOND_PX) -> float:
-    """A halo wide enough to hold the whole label box, and at least 0.45 of a bond."""
+    """A radius that clears the whole label box, and at least 0.45 of a bond."""
     r = 0.45 * bond_px
     if box is not None:
         x, y, w, h = box
@@ -153,10 +153,18 @@ def draw_component(
         if i >= len(atoms):
             continue
         r = halo_radius(atoms[i], boxes[i], scale)
-        under.append(
-            f'<circle class="cc-halo" cx="{atoms[i][0]}" cy="{atoms[i][1]}" r="{r}" '
-            f'fill="{_hex(rgba)}" fill-opacity="{rgba[3]:.2f}"/>'
-        )
+        if boxes[i] is None:  # an unlabelled carbon: a soft disc
+            under.append(
+                f'<circle class="cc-halo" cx="{atoms[i][0]}" cy="{atoms[i][1]}" r="{r}" '
+                f'fill="{_hex(rgba)}" fill-opacity="{rgba[3]:.2f}"/>'
+            )
+        else:  # a labelled atom: a soft ring round the label, which stays on the page colour
+            width = max(0.22 * scale, 4.0)
+            under.append(
+                f'<circle class="cc-halo" cx="{atoms[i][0]}" cy="{atoms[i][1]}" r="{r + width / 2:.1f}" '
+                f'fill="none" stroke="{_hex(rgba)}" stroke-opacity="{min(1.0, 2 * rgba[3]):.2f}" '
+                f'stroke-width="{width:.1f}"/>'
+            )
     if under:
         marker = "<!-- END OF HEADER -->"
         k = svg.find(marker)

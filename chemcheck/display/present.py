@@ -283,6 +283,16 @@ def _equiv(v: float) -> str:
     return s + "0" if s.endswith(".") else s
 
 
+# what a chemist reads first: equivalents and amounts, then what goes on the balance
+_ORDER = ("mw", "equiv", "mmol", "mass_g", "volume_ml", "purity", "theoretical_g", "yield_pct")
+_NOT_SHOWN = ("formula", "role", "density_g_ml")
+
+
+def _column_order(columns: list[str]) -> list[str]:
+    known = [k for k in _ORDER if k in columns]
+    return known + [k for k in columns if k not in known]
+
+
 def stoich_table(payload: dict) -> StoichTable | None:
     t = payload.get("table")
     if not t or not t.get("rows"):
@@ -297,10 +307,10 @@ def stoich_table(payload: dict) -> StoichTable | None:
     def col(key: str) -> list:
         return [v.get(key) for v in vals]
 
-    for key in t.get("columns") or []:
+    for key in _column_order(t.get("columns") or []):
         data = col(key)
-        if all(x is None or x == "" for x in data) or key in ("formula", "role"):
-            continue  # empty columns hidden; the formula is in the components table
+        if all(x is None or x == "" for x in data) or key in _NOT_SHOWN:
+            continue  # empty columns hidden; formula and density are in the components and read-as
         if key == "mw":
             cols.append(Column(key, "M (g/mol)", ["" if x is None else f"{x:.2f}" for x in data]))
         elif key == "mass_g":

@@ -273,6 +273,10 @@ function equiv(v: number): string {
 
 const num = (x: unknown): number | null => (typeof x === 'number' && Number.isFinite(x) ? x : null);
 
+// what a chemist reads first: equivalents and amounts, then what goes on the balance
+const ORDER = ['mw', 'equiv', 'mmol', 'mass_g', 'volume_ml', 'purity', 'theoretical_g', 'yield_pct'];
+const NOT_SHOWN = ['formula', 'role', 'density_g_ml'];
+
 export function stoichTable(report: Report): StoichTable | null {
   const t = report.table;
   if (!t || t.rows.length === 0) {
@@ -282,10 +286,11 @@ export function stoichTable(report: Report): StoichTable | null {
   const vals = t.rows.map(r => r.values ?? {});
   const reference = vals.map(v => num(v.equiv) !== null);
   const columns: Column[] = [];
-  for (const key of t.columns) {
+  const known = ORDER.filter(k => t.columns.includes(k));
+  for (const key of [...known, ...t.columns.filter(k => !known.includes(k))]) {
     const raw = vals.map(v => v[key] ?? null);
-    if (raw.every(x => x === null || x === '') || key === 'formula' || key === 'role') {
-      continue; // empty columns hidden; the formula is in the components table
+    if (raw.every(x => x === null || x === '') || NOT_SHOWN.includes(key)) {
+      continue; // empty columns hidden; formula and density are in the components and read-as
     }
     const data = raw.map(num);
     const fixed = (digits: number, scale = 1): string[] => data.map(x => (x === null ? '' : (x * scale).toFixed(digits)));

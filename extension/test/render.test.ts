@@ -161,9 +161,9 @@ test('compounds are named by number and label, never by SMILES, in findings and 
   assert.match(first.textContent ?? '', /At N of ethylamine \(1\)/);
   const headers = [...node.querySelectorAll('.cc-stoich th')].map(th => th.textContent);
   // empty columns (volume, yield) hidden; units in the headers; mass in mg at this scale
-  assert.deepEqual(headers, ['Compound', 'M (g/mol)', 'Mass (mg)', 'Amount (mmol)', 'Equiv']);
+  assert.deepEqual(headers, ['Compound', 'M (g/mol)', 'Equiv', 'Amount (mmol)', 'Mass (mg)']);
   const cells = [...node.querySelectorAll('.cc-stoich td')].map(td => td.textContent);
-  assert.deepEqual(cells, ['ethylamine (1)', '45.09', '45.1', '1.00', '1.0']);
+  assert.deepEqual(cells, ['ethylamine (1)', '45.09', '1.0', '1.00', '45.1']);
   assert.match(node.querySelector('.cc-verdict')?.textContent ?? '', /limiting reagent ethylamine \(1\)/);
   // collapsible sections are closed by default
   const components = node.querySelector('details.cc-components') as HTMLDetailsElement;
