@@ -134,7 +134,28 @@ def test_3d_view_has_hydrogens_and_highlights():
     assert MOL3D_MIME in b and "image/svg+xml" in b
     block = b[MOL3D_MIME]["molblock"]
     assert " H " in block  # hydrogens shown
-    assert b[MOL3D_MIME]["highlights"] == [{"atom": 0, "color": "#db332d"}]
+    assert b[MOL3D_MIME]["highlights"] == [{"atom": 0, "color": "#ff1493", "severity": "error"}]
+
+
+def test_3d_highlight_colours_are_far_from_every_element_colour():
+    from pathlib import Path
+
+    from chemcheck.display.threed import HIGHLIGHT_3D
+
+    src = Path(__file__).resolve().parents[1] / "extension" / "node_modules" / "3dmol" / "src" / "colors.ts"
+    if not src.exists():
+        pytest.skip("3Dmol.js sources not installed (jlpm install in extension/)")
+    # every element colour 3Dmol.js can draw (its Jmol, RasMol and default tables)
+    table = {int(h, 16) for h in re.findall(r"\b[A-Z][a-z]?\s*:\s*0x([0-9a-fA-F]{6})", src.read_text())}
+    assert len(table) > 100
+
+    def rgb(v):
+        return ((v >> 16) & 255, (v >> 8) & 255, v & 255)
+
+    for sev, colour in HIGHLIGHT_3D.items():
+        c = rgb(int(colour[1:], 16))
+        nearest = min(sum((x - y) ** 2 for x, y in zip(c, rgb(e))) ** 0.5 for e in table)
+        assert nearest > 60, (sev, nearest)
 
 
 def test_3d_falls_back_to_2d_when_embedding_is_impossible():
