@@ -73,6 +73,10 @@ def lab():
         (tmp / sub).mkdir()
         env[var] = str(tmp / sub)
     env["JUPYTERLAB_SETTINGS_DIR"] = str(tmp / "settings")
+    # no news pop-up over the screenshots
+    news = tmp / "settings" / "@jupyterlab" / "apputils-extension"
+    news.mkdir(parents=True)
+    (news / "notification.jupyterlab-settings").write_text('{"fetchNews": "false"}')
     # the extension built in this checkout wins over the one linked into the environment
     built = Path(__file__).resolve().parents[2] / "chemcheck" / "labextension"
     if (built / "package.json").exists():
