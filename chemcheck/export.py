@@ -36,7 +36,7 @@ def render_recorded(nb) -> int:
         for out in cell.get("outputs", []):
             data = out.get("data") or {}
             payload = data.get(MIME_TYPE)
-            if not isinstance(payload, dict) or "input" not in payload:
+            if not isinstance(payload, dict) or "findings" not in payload:
                 continue
             try:
                 data["text/html"] = render_html(payload, acknowledgements=acks)

@@ -15,13 +15,14 @@ def render_text(report) -> str:
         payload["labels"] = _labels(report)
     except Exception:  # the text must never fail for want of labels
         pass
-    return render_payload_text(payload)
+    return render_payload_text(payload, report.reaction.text)
 
 
-def render_payload_text(payload: dict) -> str:
+def render_payload_text(payload: dict, reaction: str | None = None) -> str:
     comps = P.compounds(payload)
     s = P.sort_findings(payload)
-    lines = [P.verdict(payload, s), f"reaction: {payload['input']['reaction']}"]
+    reaction = reaction or (payload.get("input") or {}).get("reaction") or ""
+    lines = [P.verdict(payload, s), f"reaction: {reaction}"]
     if s.by_products:
         lines.append("by-products not drawn: " + ", ".join(m["name"] for m in s.by_products))
     for f in s.shown:

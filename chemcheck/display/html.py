@@ -94,7 +94,7 @@ def render_html(payload: dict, scheme_svg: str | None = None, acknowledgements: 
     comps = P.compounds(payload)
     s = P.sort_findings(payload)
     acks = {a.get("finding"): a for a in acknowledgements or [] if isinstance(a, dict)}
-    reaction = payload["input"]["reaction"]
+    reaction = (payload.get("input") or {}).get("reaction") or ""
     if scheme_svg is None:
         scheme_svg = (payload.get("drawing") or {}).get("scheme_svg")
     out = ['<div class="chemcheck-static-report">']

@@ -14,7 +14,7 @@ import { SplitPanel, Widget } from '@lumino/widgets';
 import { METADATA_KEY, type ReviewSettings, notify, parseAcks, setBridge, withAck } from './ack';
 import { el } from './dom';
 import type { Finding, Report } from './payload';
-import { ACKNOWLEDGEABLE, compounds, readableTime, sortFindings } from './present';
+import { ACKNOWLEDGEABLE, compounds, reactionText, readableTime, sortFindings } from './present';
 import { type Acknowledgement, SEVERITY_ORDER, SEVERITY_WORD, findingKey, isReport } from './render';
 
 const PLUGIN_ID = 'chemcheck-jupyterlab:review';
@@ -203,7 +203,7 @@ class ReviewPanel extends Widget {
       const jump = el('button', 'cc-review-jump');
       jump.type = 'button';
       jump.dataset.cell = String(entry.cellIndex);
-      jump.title = entry.report.input.reaction;
+      jump.title = reactionText(entry.report);
       const line = el('span', 'cc-review-line');
       line.appendChild(el('span', 'cc-review-cell', promptOf(entry.cell)));
       line.appendChild(document.createTextNode(' '));

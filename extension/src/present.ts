@@ -14,6 +14,11 @@ export const SEVERITY_WORD: Record<Finding['severity'], string> = {
 export const ACKNOWLEDGEABLE: Array<Finding['severity']> = ['error', 'warning'];
 const SAFETY_RULES = ['hazard-caution'];
 
+/** The reaction as written (a scaled report's payload may lack it). */
+export function reactionText(report: Report): string {
+  return (report.input as { reaction?: string } | undefined)?.reaction ?? '';
+}
+
 export function plural(n: number, word: string): string {
   return n === 1 ? `${n} ${word}` : `${n} ${word}s`;
 }

@@ -11,6 +11,7 @@ import {
   compounds,
   fixText,
   fmtNumber,
+  reactionText,
   readableTime,
   roleOf,
   sortFindings,
@@ -104,14 +105,14 @@ export function renderScheme(report: Report): {
   const wrap = el('figure', 'cc-scheme');
   const drawing = report.drawing;
   if (!drawing) {
-    wrap.appendChild(el('figcaption', 'cc-muted', report.input.reaction));
+    wrap.appendChild(el('figcaption', 'cc-muted', reactionText(report)));
     return { node: wrap, highlight: () => undefined };
   }
   const stage = el('div', 'cc-scheme-stage');
   stage.style.width = `${drawing.width}px`;
   const img = el('img', 'cc-scheme-img');
   img.src = svgDataUrl(drawing.scheme_svg);
-  img.alt = `reaction scheme: ${report.input.reaction}`;
+  img.alt = `reaction scheme: ${reactionText(report)}`;
   img.width = drawing.width;
   img.height = drawing.height;
   stage.appendChild(img);
@@ -432,7 +433,7 @@ export function renderReport(report: Report, options: RenderOptions = {}): HTMLE
   root.classList.add(`cc-worst-${worst}`);
   const header = el('header', 'cc-header');
   header.appendChild(el('p', 'cc-verdict', verdict(report, sorted)));
-  header.appendChild(el('p', 'cc-title', report.input.reaction));
+  header.appendChild(el('p', 'cc-title', reactionText(report)));
   root.appendChild(header);
   const scheme = renderScheme(report);
   root.appendChild(scheme.node);
