@@ -322,3 +322,14 @@ def test_one_bond_length_for_every_molecule_of_a_scheme():
         (x0, y0), (x1, y1) = comp["atoms"][0], comp["atoms"][1]  # atoms 0-1 are bonded in each
         lengths.append(((x1 - x0) ** 2 + (y1 - y0) ** 2) ** 0.5)
     assert max(lengths) - min(lengths) < 1.0, lengths
+
+
+def test_the_bond_formed_is_marked_in_the_product():
+    # benzylamine + acetyl chloride: the new C-N bond of the amide (N-acylation)
+    report = chemcheck.check("NCc1ccccc1.CC(=O)Cl>CCN(CC)CC>CC(=O)NCc1ccccc1")
+    b = report._repr_mimebundle_()
+    centre = report.to_dict()["understanding"]["centre"]["formed_in_products"]
+    assert centre and all(c1 == c2 == 3 for (c1, _), (c2, _) in centre)  # in the product, compound 3
+    assert len(b[chemcheck.MIME_TYPE]["drawing"]["centre"]) == len(centre)
+    assert 'class="cc-centre"' in b["image/svg+xml"]
+    assert "marked in teal" in b["text/html"]

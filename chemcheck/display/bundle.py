@@ -58,8 +58,10 @@ def _labels(report) -> list[dict]:
     out = []
     for c in report.components:
         entry = numbered[c.index]
-        # once the check numbers its components, its own label ("benzylamine (1)") is used
-        label = c.label if getattr(c, "number", None) else entry.label
+        # the check's own label once it names compounds by number ("benzylamine (1)", "amine 1")
+        own = getattr(c, "label", "") or ""
+        number = getattr(c, "number", None) or entry.number
+        label = own if own.endswith((f"({number})", f" {number}")) else entry.label
         out.append(
             {
                 "component": c.index,

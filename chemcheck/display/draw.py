@@ -145,6 +145,14 @@ def draw_component(
     for i, j in bold_bonds or []:
         if i < len(atoms) and j < len(atoms):
             (x0, y0), (x1, y1) = atoms[i], atoms[j]
+            # stop short of element labels so that the mark never covers one
+            length = max(((x1 - x0) ** 2 + (y1 - y0) ** 2) ** 0.5, 1e-6)
+            cut0 = min(0.4, (halo_radius(atoms[i], boxes[i], scale) - 2) / length) if boxes[i] else 0.0
+            cut1 = min(0.4, (halo_radius(atoms[j], boxes[j], scale) - 2) / length) if boxes[j] else 0.0
+            x0, y0, x1, y1 = (
+                round(x0 + (x1 - x0) * cut0, 1), round(y0 + (y1 - y0) * cut0, 1),
+                round(x1 - (x1 - x0) * cut1, 1), round(y1 - (y1 - y0) * cut1, 1),
+            )
             under.append(
                 f'<line class="cc-centre" x1="{x0}" y1="{y0}" x2="{x1}" y2="{y1}" stroke="{CENTRE}" '
                 f'stroke-opacity="0.45" stroke-width="{0.4 * scale:.1f}" stroke-linecap="round"/>'
@@ -201,7 +209,9 @@ def _agent_name(c) -> str:
 
 
 def _centre_bonds(report) -> list[tuple[tuple[int, int], tuple[int, int]]]:
-    raw = getattr(report, "centre", None) or report.extra.get("centre") or []
+    """Bonds formed, as (component, atom) pairs: in the products where the map places them."""
+    centre = (report.extra.get("understanding") or {}).get("centre") or {}
+    raw = centre.get("formed_in_products") or centre.get("formed") or getattr(report, "centre", None) or []
     out = []
     for bond in raw:
         try:

@@ -105,6 +105,8 @@ def render_html(payload: dict, scheme_svg: str | None = None, acknowledgements: 
     out.append(f'<p style="{_MUTED}"><code>{escape(reaction)}</code></p>')
     if scheme_svg:
         out.append(f"<p>{_img(scheme_svg, 'reaction scheme: ' + reaction)}</p>")
+        if (payload.get("drawing") or {}).get("centre"):
+            out.append(f'<p style="{_MUTED}">The bond formed in the reaction is marked in teal.</p>')
     if s.shown:
         out.append("<h4>Findings</h4><ul style=\"list-style:none;padding-left:0\">")
         for f in s.shown:

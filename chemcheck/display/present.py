@@ -153,6 +153,9 @@ def sort_findings(payload: dict) -> Sorted:
 
 
 def _class_name(payload: dict) -> str | None:
+    understood = ((payload.get("understanding") or {}).get("class") or {}).get("name")
+    if understood:
+        return str(understood)
     rc = payload.get("reaction_class")
     if isinstance(rc, dict):
         rc = rc.get("name")

@@ -150,6 +150,10 @@ export function sortFindings(report: Report): Sorted {
 }
 
 function className(report: Report): string | null {
+  const understood = (report as Report & { understanding?: { class?: { name?: string } | null } | null }).understanding?.class?.name;
+  if (understood) {
+    return understood;
+  }
   const rc = (report as Report & { reaction_class?: string | { name?: string } | null }).reaction_class;
   if (typeof rc === 'string' && rc) {
     return rc;

@@ -124,6 +124,9 @@ export function renderScheme(report: Report): {
   });
   stage.appendChild(overlay);
   wrap.appendChild(stage);
+  if ((drawing.centre ?? []).length > 0) {
+    wrap.appendChild(el('figcaption', 'cc-muted cc-centre-key', 'The bond formed in the reaction is marked in teal.'));
+  }
   const coords = new Map<number, { atoms: number[][]; boxes: Array<number[] | null> }>();
   for (const c of drawing.components) {
     coords.set(c.component, { atoms: c.atoms, boxes: c.label_box ?? [] });
