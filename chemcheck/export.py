@@ -18,7 +18,13 @@ from pathlib import Path
 from .errors import ChemcheckError
 from .report import MIME_TYPE
 
-__all__ = ["render_recorded", "ChemcheckPreprocessor", "ChemcheckHTMLExporter", "export_notebook", "add_export_command"]
+__all__ = [
+    "ChemcheckHTMLExporter",  # noqa: F822  (built on first use by __getattr__)
+    "ChemcheckPreprocessor",  # noqa: F822
+    "add_export_command",
+    "export_notebook",
+    "render_recorded",
+]
 
 
 def render_recorded(nb) -> int:
@@ -74,7 +80,9 @@ def _classes() -> dict:
 
     for cls in (ChemcheckPreprocessor, ChemcheckHTMLExporter):
         cls.__module__ = __name__
-    _CLASSES.update(ChemcheckPreprocessor=ChemcheckPreprocessor, ChemcheckHTMLExporter=ChemcheckHTMLExporter)
+    _CLASSES.update(
+        ChemcheckPreprocessor=ChemcheckPreprocessor, ChemcheckHTMLExporter=ChemcheckHTMLExporter
+    )
     return _CLASSES
 
 
@@ -101,7 +109,9 @@ def export_notebook(path: str | Path, out: str | Path | None = None) -> Path:
     except (json.JSONDecodeError, nbformat.reader.NotJSONError, UnicodeDecodeError) as exc:
         raise ChemcheckError(f"{p}: not a readable notebook (not valid JSON: {exc})") from None
     except Exception as exc:  # nbformat's own validation and version errors
-        raise ChemcheckError(f"{p}: not a readable notebook ({type(exc).__name__}: {exc})") from None
+        raise ChemcheckError(
+            f"{p}: not a readable notebook ({type(exc).__name__}: {exc})"
+        ) from None
     body, _resources = _classes()["ChemcheckHTMLExporter"]().from_notebook_node(nb)
     target = Path(out) if out else p.with_suffix(".html")
     target.write_text(body, encoding="utf-8")
@@ -110,7 +120,9 @@ def export_notebook(path: str | Path, out: str | Path | None = None) -> Path:
 
 def add_export_command(sub) -> None:
     """The ``chemcheck export NOTEBOOK`` subcommand (register with ``cli.command``)."""
-    p = sub.add_parser("export", help="export a notebook to HTML with its checks and acknowledgements")
+    p = sub.add_parser(
+        "export", help="export a notebook to HTML with its checks and acknowledgements"
+    )
     p.add_argument("notebook", help="the .ipynb file")
     p.add_argument("-o", "--output", help="the HTML file to write (default: beside the notebook)")
     p.set_defaults(func=lambda args: print(export_notebook(args.notebook, args.output)) or 0)

@@ -51,7 +51,11 @@ def render_payload_text(payload: dict, reaction: str | None = None) -> str:
         lines.append("stoichiometry:")
         name_w = min(max(len(c.label) for c in st.compounds), 28)
         widths = [max(len(col.header), *(len(v) for v in col.cells)) for col in st.columns]
-        lines.append("  " + f"{'Compound':{name_w}s}  " + "  ".join(f"{col.header:>{w}s}" for col, w in zip(st.columns, widths)))
+        lines.append(
+            "  "
+            + f"{'Compound':{name_w}s}  "
+            + "  ".join(f"{col.header:>{w}s}" for col, w in zip(st.columns, widths))
+        )
         for k, comp in enumerate(st.compounds):
             cells = "  ".join(f"{col.cells[k]:>{w}s}" for col, w in zip(st.columns, widths))
             lines.append(f"  {comp.label[:name_w]:{name_w}s}  {cells}")

@@ -43,7 +43,7 @@ def test_every_finding_is_in_the_html_and_the_text():
             assert prop in {
                 "background-color", "color", "padding", "padding-left", "border-radius", "font-weight",
                 "border-left", "margin", "text-align", "white-space", "overflow-x", "max-width",
-                "height", "opacity", "font-style", "list-style", "padding-left",
+                "height", "opacity", "font-style", "list-style",
             }, prop
 
 

@@ -19,7 +19,7 @@ from rdkit.Chem.Draw import rdMolDraw2D
 
 from .. import _rdlog
 
-__all__ = ["draw_component", "draw_scheme", "Scheme", "SEVERITY_RGBA", "BOND_PX", "PALETTE"]
+__all__ = ["BOND_PX", "PALETTE", "SEVERITY_RGBA", "Scheme", "draw_component", "draw_scheme"]
 
 SEVERITY_RGBA = {
     "error": (0.86, 0.20, 0.18, 0.30),
@@ -31,13 +31,24 @@ GREY = "#7c7c7c"
 CENTRE = "#009688"  # bonds formed: teal, no severity and no element uses it
 # element colours, mid-luminance so that they read on white and on a dark page
 PALETTE = {
-    0: "#7c7c7c", 1: "#7c7c7c", 6: "#7c7c7c",
-    7: "#4f6fe8", 8: "#d9453d", 9: "#2f9b2f", 17: "#2f9b2f",
-    15: "#b8651e", 16: "#a07800", 35: "#b8651e", 53: "#b865c8",
-    5: "#b8651e", 11: "#b865c8", 13: "#b865c8", 14: "#a07800",
+    0: "#7c7c7c",
+    1: "#7c7c7c",
+    6: "#7c7c7c",
+    7: "#4f6fe8",
+    8: "#d9453d",
+    9: "#2f9b2f",
+    17: "#2f9b2f",
+    15: "#b8651e",
+    16: "#a07800",
+    35: "#b8651e",
+    53: "#b865c8",
+    5: "#b8651e",
+    11: "#b865c8",
+    13: "#b865c8",
+    14: "#a07800",
 }
 _XML_HEAD = re.compile(r"<\?xml[^>]*\?>\s*")
-_LABEL_PATH = re.compile(r"<path class='atom-(\d+)' d='([^']*)'", re.S)
+_LABEL_PATH = re.compile(r"<path class='atom-(\d+)' d='([^']*)'", re.DOTALL)
 _NUM = re.compile(r"-?\d+(?:\.\d+)?")
 
 
@@ -46,7 +57,8 @@ def _rgb(hex_colour: str) -> tuple[float, float, float]:
 
 
 def _hex(rgba) -> str:
-    return "#%02X%02X%02X" % tuple(int(255 * c) for c in rgba[:3])
+    r, g, b = (int(255 * c) for c in rgba[:3])
+    return f"#{r:02X}{g:02X}{b:02X}"
 
 
 @dataclass
@@ -147,11 +159,17 @@ def draw_component(
             (x0, y0), (x1, y1) = atoms[i], atoms[j]
             # stop short of element labels so that the mark never covers one
             length = max(((x1 - x0) ** 2 + (y1 - y0) ** 2) ** 0.5, 1e-6)
-            cut0 = min(0.4, (halo_radius(atoms[i], boxes[i], scale) - 2) / length) if boxes[i] else 0.0
-            cut1 = min(0.4, (halo_radius(atoms[j], boxes[j], scale) - 2) / length) if boxes[j] else 0.0
+            cut0 = (
+                min(0.4, (halo_radius(atoms[i], boxes[i], scale) - 2) / length) if boxes[i] else 0.0
+            )
+            cut1 = (
+                min(0.4, (halo_radius(atoms[j], boxes[j], scale) - 2) / length) if boxes[j] else 0.0
+            )
             x0, y0, x1, y1 = (
-                round(x0 + (x1 - x0) * cut0, 1), round(y0 + (y1 - y0) * cut0, 1),
-                round(x1 - (x1 - x0) * cut1, 1), round(y1 - (y1 - y0) * cut1, 1),
+                round(x0 + (x1 - x0) * cut0, 1),
+                round(y0 + (y1 - y0) * cut0, 1),
+                round(x1 - (x1 - x0) * cut1, 1),
+                round(y1 - (y1 - y0) * cut1, 1),
             )
             under.append(
                 f'<line class="cc-centre" x1="{x0}" y1="{y0}" x2="{x1}" y2="{y1}" stroke="{CENTRE}" '
@@ -211,7 +229,12 @@ def _agent_name(c) -> str:
 def _centre_bonds(report) -> list[tuple[tuple[int, int], tuple[int, int]]]:
     """Bonds formed, as (component, atom) pairs: in the products where the map places them."""
     centre = (report.extra.get("understanding") or {}).get("centre") or {}
-    raw = centre.get("formed_in_products") or centre.get("formed") or getattr(report, "centre", None) or []
+    raw = (
+        centre.get("formed_in_products")
+        or centre.get("formed")
+        or getattr(report, "centre", None)
+        or []
+    )
     out = []
     for bond in raw:
         try:
@@ -237,7 +260,11 @@ def draw_scheme(report, highlight: bool = True, numbers: dict[int, str] | None =
     for (c1, a1), (c2, a2) in centre:
         if c1 == c2:
             bold.setdefault(c1, []).append((a1, a2))
-    reactants, agents, products = report.reaction.reactants, report.reaction.agents, report.reaction.products
+    reactants, agents, products = (
+        report.reaction.reactants,
+        report.reaction.agents,
+        report.reaction.products,
+    )
     drawn_agents = [
         a
         for a in agents
@@ -273,8 +300,16 @@ def draw_scheme(report, highlight: bool = True, numbers: dict[int, str] | None =
     placed: list[Placed] = []
     x = 8.0
 
-    def text(tx: float, ty: float, s: str, size: int = 22, anchor: str = "middle", weight: str = "normal",
-             fill: str = GREY, cls: str = "") -> str:
+    def text(
+        tx: float,
+        ty: float,
+        s: str,
+        size: int = 22,
+        anchor: str = "middle",
+        weight: str = "normal",
+        fill: str = GREY,
+        cls: str = "",
+    ) -> str:
         c = f' class="{cls}"' if cls else ""
         return (
             f'<text{c} x="{tx:.1f}" y="{ty:.1f}" font-family="sans-serif" font-size="{size}" '
@@ -292,7 +327,16 @@ def draw_scheme(report, highlight: bool = True, numbers: dict[int, str] | None =
             parts.append(_nest(d, x, y))
             placed.append(Placed(c.index, d, x, y, numbers.get(c.index, "")))
             if numbers.get(c.index):
-                parts.append(text(x + d.width / 2, num_y, numbers[c.index], size=16, weight="bold", cls="cc-number"))
+                parts.append(
+                    text(
+                        x + d.width / 2,
+                        num_y,
+                        numbers[c.index],
+                        size=16,
+                        weight="bold",
+                        cls="cc-number",
+                    )
+                )
             x += d.width
 
     put(reactants)
@@ -307,7 +351,16 @@ def draw_scheme(report, highlight: bool = True, numbers: dict[int, str] | None =
         parts.append(_nest(d, ax, y))
         placed.append(Placed(a.index, d, ax, y, numbers.get(a.index, "")))
         if numbers.get(a.index):
-            parts.append(text(ax + d.width / 2, mid - 6, numbers[a.index], size=13, weight="bold", cls="cc-number"))
+            parts.append(
+                text(
+                    ax + d.width / 2,
+                    mid - 6,
+                    numbers[a.index],
+                    size=13,
+                    weight="bold",
+                    cls="cc-number",
+                )
+            )
         ax += d.width + 10
     parts.append(
         f'<line x1="{x:.1f}" y1="{mid:.1f}" x2="{x + arrow - 10:.1f}" y2="{mid:.1f}" '
@@ -335,8 +388,9 @@ def draw_scheme(report, highlight: bool = True, numbers: dict[int, str] | None =
     for s in by_products[:4]:
         label = f"+ {s}"
         parts.append(
-            text(x + 8, mid + 7, label, size=18, anchor="start", fill=GREY, cls="cc-by-product")
-            .replace("<text ", '<text fill-opacity="0.75" font-style="italic" ', 1)
+            text(
+                x + 8, mid + 7, label, size=18, anchor="start", fill=GREY, cls="cc-by-product"
+            ).replace("<text ", '<text fill-opacity="0.75" font-style="italic" ', 1)
         )
         x += 16 + 10.5 * len(label)
     # bonds formed between atoms of different components: a teal ring on each end

@@ -17,7 +17,7 @@ from html import escape
 
 from . import present as P
 
-__all__ = ["render_html", "SEVERITY_STYLE", "readable_time"]
+__all__ = ["SEVERITY_STYLE", "readable_time", "render_html"]
 
 # Filled badges: white text on red and blue, black text on amber; each pair above 4.5:1
 # (WCAG 2.1 relative luminance), and the badge reads the same on light and dark pages.
@@ -46,15 +46,22 @@ _NUM_TD = "text-align:right;white-space:nowrap;padding:2px 6px"
 _TXT_TD = "text-align:left;padding:2px 6px"
 
 
-def _table(headers: list[tuple[str, bool]], rows: list[list[tuple[str, bool]]], titles: list[str] | None = None) -> str:
+def _table(
+    headers: list[tuple[str, bool]],
+    rows: list[list[tuple[str, bool]]],
+    titles: list[str] | None = None,
+) -> str:
     """A table whose numeric columns are right-aligned and never wrap (the block scrolls)."""
     head = "".join(
-        f'<th style="{_NUM_TD if num else _TXT_TD};white-space:nowrap">{escape(h)}</th>' for h, num in headers
+        f'<th style="{_NUM_TD if num else _TXT_TD};white-space:nowrap">{escape(h)}</th>'
+        for h, num in headers
     )
     body = []
     for k, r in enumerate(rows):
         title = f' title="{escape(titles[k])}"' if titles and titles[k] else ""
-        cells = "".join(f'<td style="{_NUM_TD if num else _TXT_TD}">{escape(v)}</td>' for v, num in r)
+        cells = "".join(
+            f'<td style="{_NUM_TD if num else _TXT_TD}">{escape(v)}</td>' for v, num in r
+        )
         body.append(f"<tr{title}>{cells}</tr>")
     return (
         '<div style="overflow-x:auto;max-width:100%">'
@@ -87,7 +94,9 @@ def _details(title: str, body: str, cls: str) -> str:
     return f'<details class="{cls}"><summary><strong>{escape(title)}</strong></summary>{body}</details>'
 
 
-def render_html(payload: dict, scheme_svg: str | None = None, acknowledgements: list[dict] | None = None) -> str:
+def render_html(
+    payload: dict, scheme_svg: str | None = None, acknowledgements: list[dict] | None = None
+) -> str:
     """The whole static report; ``acknowledgements`` as stored in the cell metadata."""
     from ..review import finding_key
 
@@ -98,17 +107,23 @@ def render_html(payload: dict, scheme_svg: str | None = None, acknowledgements: 
     if scheme_svg is None:
         scheme_svg = (payload.get("drawing") or {}).get("scheme_svg")
     out = ['<div class="chemcheck-static-report">']
-    worst = next((sev for sev in P.SEVERITY_ORDER if any(f["severity"] == sev for f in s.shown)), None)
+    worst = next(
+        (sev for sev in P.SEVERITY_ORDER if any(f["severity"] == sev for f in s.shown)), None
+    )
     border = SEVERITY_STYLE[worst][0] if worst in ("error", "warning") else "#888888"
-    out.append(f'<p class="cc-verdict" style="border-left:4px solid {border};padding-left:8px">'
-               f"<strong>{escape(P.verdict(payload, s))}</strong></p>")
+    out.append(
+        f'<p class="cc-verdict" style="border-left:4px solid {border};padding-left:8px">'
+        f"<strong>{escape(P.verdict(payload, s))}</strong></p>"
+    )
     out.append(f'<p style="{_MUTED}"><code>{escape(reaction)}</code></p>')
     if scheme_svg:
         out.append(f"<p>{_img(scheme_svg, 'reaction scheme: ' + reaction)}</p>")
         if (payload.get("drawing") or {}).get("centre"):
-            out.append(f'<p style="{_MUTED}">The bond formed in the reaction is marked in teal.</p>')
+            out.append(
+                f'<p style="{_MUTED}">The bond formed in the reaction is marked in teal.</p>'
+            )
     if s.shown:
-        out.append("<h4>Findings</h4><ul style=\"list-style:none;padding-left:0\">")
+        out.append('<h4>Findings</h4><ul style="list-style:none;padding-left:0">')
         for f in s.shown:
             sev = f["severity"]
             key = finding_key(f["rule"], f["message"], f.get("atoms") or [])
@@ -129,7 +144,9 @@ def render_html(payload: dict, scheme_svg: str | None = None, acknowledgements: 
             elif sev in P.ACKNOWLEDGEABLE and acknowledgements is not None:
                 bits.append(f'<br><span style="{_MUTED}">Not acknowledged</span>')
             style = f"border-left:4px {'dashed' if ack else 'solid'} {SEVERITY_STYLE[sev][0]};padding:2px 8px;margin:4px 0"
-            out.append(f'<li class="cc-finding cc-{sev}{" cc-acknowledged" if ack else ""}" style="{style}">{"".join(bits)}</li>')
+            out.append(
+                f'<li class="cc-finding cc-{sev}{" cc-acknowledged" if ack else ""}" style="{style}">{"".join(bits)}</li>'
+            )
         out.append("</ul>")
     else:
         out.append("<p>No findings.</p>")
@@ -142,7 +159,9 @@ def render_html(payload: dict, scheme_svg: str | None = None, acknowledgements: 
     out.extend(_stoichiometry(payload))
     scale = payload.get("scale")
     if scale and scale.get("cautions"):
-        out.append(f"<h4>Scale-up ×{escape(P.fmt_number(scale.get('factor') or 0))}: cautions</h4><ul>")
+        out.append(
+            f"<h4>Scale-up ×{escape(P.fmt_number(scale.get('factor') or 0))}: cautions</h4><ul>"
+        )
         out.extend(f"<li>{escape(c)}</li>" for c in scale["cautions"])
         out.append("</ul>")
     out.extend(_closed_sections(payload, comps, s))
@@ -159,7 +178,13 @@ def _stoichiometry(payload: dict) -> list[str]:
     rows = []
     for k, comp in enumerate(st.compounds):
         rows.append([(comp.label, False)] + [(c.cells[k], c.numeric) for c in st.columns])
-    out.append(_table(headers, rows, [f"{c.smiles}: {r}" if r else c.smiles for c, r in zip(st.compounds, st.read_as)]))
+    out.append(
+        _table(
+            headers,
+            rows,
+            [f"{c.smiles}: {r}" if r else c.smiles for c, r in zip(st.compounds, st.read_as)],
+        )
+    )
     lines = []
     if st.limiting:
         lines.append(f"Limiting reagent: {st.limiting}")
@@ -179,7 +204,11 @@ def _stoichiometry(payload: dict) -> list[str]:
         out.append("<p>" + "<br>".join(escape(x) for x in lines) + "</p>")
     read = [(c.label, r) for c, r in zip(st.compounds, st.read_as) if r]
     if read:
-        body = "<ul>" + "".join(f"<li>{escape(label)}: {escape(r)}</li>" for label, r in read) + "</ul>"
+        body = (
+            "<ul>"
+            + "".join(f"<li>{escape(label)}: {escape(r)}</li>" for label, r in read)
+            + "</ul>"
+        )
         out.append(_details("How the amounts were read", body, "cc-read-as"))
     return out
 
@@ -202,8 +231,20 @@ def _closed_sections(payload: dict, comps: dict[int, P.Compound], s: P.Sorted) -
                     (b["method"], False),
                 ]
             )
-        table = _table([("Compound", False), ("Atom", False), ("Nitrogen", False), ("pKa (BH⁺)", True), ("Uncertainty", True), ("Method", False)], rows)
-        out.append(_details("Basicity (pKa of the conjugate acid, water, 25 °C)", table, "cc-basicity"))
+        table = _table(
+            [
+                ("Compound", False),
+                ("Atom", False),
+                ("Nitrogen", False),
+                ("pKa (BH⁺)", True),
+                ("Uncertainty", True),
+                ("Method", False),
+            ],
+            rows,
+        )
+        out.append(
+            _details("Basicity (pKa of the conjugate acid, water, 25 °C)", table, "cc-basicity")
+        )
     workup = payload.get("workup")
     if workup:
         body = "<ul>" + "".join(f"<li>{escape(w['message'])}</li>" for w in workup)
@@ -219,7 +260,9 @@ def _closed_sections(payload: dict, comps: dict[int, P.Compound], s: P.Sorted) -
                     f"<li>{escape(p['reaction_class'])}: <strong>{escape(cand['label'])}</strong> "
                     f"<code>{escape(cand['smiles'])}</code> — {escape(cand['reason'])}{picture}</li>"
                 )
-        out.append(_details("Expected products", "<ul>" + "".join(items) + "</ul>", "cc-predictions"))
+        out.append(
+            _details("Expected products", "<ul>" + "".join(items) + "</ul>", "cc-predictions")
+        )
     rows = []
     for x in payload.get("components") or []:
         c = comps[x["index"]]
@@ -236,7 +279,17 @@ def _closed_sections(payload: dict, comps: dict[int, P.Compound], s: P.Sorted) -
     out.append(
         _details(
             "Components",
-            _table([("No.", False), ("Compound", False), ("Role", False), ("As written", False), ("Formula", False), ("M (g/mol)", True)], rows),
+            _table(
+                [
+                    ("No.", False),
+                    ("Compound", False),
+                    ("Role", False),
+                    ("As written", False),
+                    ("Formula", False),
+                    ("M (g/mol)", True),
+                ],
+                rows,
+            ),
             "cc-components",
         )
     )
@@ -244,8 +297,13 @@ def _closed_sections(payload: dict, comps: dict[int, P.Compound], s: P.Sorted) -
     if balance.get("checked"):
         lines = []
         if s.by_products:
-            names = ", ".join(f"{m['count']} {m['name']}" if m.get("count", 1) != 1 else m["name"] for m in s.by_products)
-            lines.append(f"By-products not drawn in the equation (shown greyed in the scheme): {names}.")
+            names = ", ".join(
+                f"{m['count']} {m['name']}" if m.get("count", 1) != 1 else m["name"]
+                for m in s.by_products
+            )
+            lines.append(
+                f"By-products not drawn in the equation (shown greyed in the scheme): {names}."
+            )
         lines.extend(f["message"] for f in s.balance_notes)
         if balance.get("drawn_balanced"):
             lines.append("The equation balances as drawn.")
@@ -254,7 +312,9 @@ def _closed_sections(payload: dict, comps: dict[int, P.Compound], s: P.Sorted) -
             if coeffs:
                 lines.append(
                     "Balanced with coefficients: "
-                    + ", ".join(f"{v} × {comps[int(k)].label}" for k, v in coeffs.items() if int(k) in comps)
+                    + ", ".join(
+                        f"{v} × {comps[int(k)].label}" for k, v in coeffs.items() if int(k) in comps
+                    )
                     + "."
                 )
         else:

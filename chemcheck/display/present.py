@@ -8,21 +8,22 @@ plain-text report; ``extension/src/render.ts`` implements the same choices for t
 
 from __future__ import annotations
 
+import math
 import re
 from dataclasses import dataclass, field
 
 __all__ = [
+    "ACKNOWLEDGEABLE",
     "Compound",
-    "compounds",
-    "where",
     "Sorted",
-    "sort_findings",
-    "verdict",
     "StoichTable",
-    "stoich_table",
+    "compounds",
     "fmt_number",
     "plural",
-    "ACKNOWLEDGEABLE",
+    "sort_findings",
+    "stoich_table",
+    "verdict",
+    "where",
 ]
 
 SEVERITY_ORDER = ("error", "warning", "info")
@@ -79,7 +80,14 @@ def compounds(payload: dict) -> dict[int, Compound]:
         label = e.get("label")
         if not label:
             label = f"{name} ({number})" if name else f"{_noun(comp)} {number}"
-        out[i] = Compound(i, number, label, comp["role"], comp.get("smiles") or comp.get("text", ""), list(e.get("elements") or []))
+        out[i] = Compound(
+            i,
+            number,
+            label,
+            comp["role"],
+            comp.get("smiles") or comp.get("text", ""),
+            list(e.get("elements") or []),
+        )
     return out
 
 
@@ -94,7 +102,11 @@ def where(finding: dict, comps: dict[int, Compound]) -> str:
         if c is None:
             continue
         symbols = [c.elements[a] if a < len(c.elements) else f"atom {a + 1}" for a in atoms]
-        names = ", ".join(dict.fromkeys(symbols)) if len(set(symbols)) < len(symbols) else ", ".join(symbols)
+        names = (
+            ", ".join(dict.fromkeys(symbols))
+            if len(set(symbols)) < len(symbols)
+            else ", ".join(symbols)
+        )
         parts.append(f"{names} of {c.label}")
     return "; ".join(parts)
 
@@ -211,7 +223,7 @@ def limiting_label(payload: dict) -> str | None:
 
 def fmt_number(v: float, sig: int = 3) -> str:
     """Sensible significant figures without exponents: 1.25, 10.99 → 11.0, 310.4 → 310."""
-    if v != v:
+    if not math.isfinite(v):
         return ""
     a = abs(v)
     if a == 0:
@@ -223,8 +235,6 @@ def fmt_number(v: float, sig: int = 3) -> str:
 
 
 def _floor_log10(a: float) -> int:
-    import math
-
     return math.floor(math.log10(a))
 
 
@@ -261,7 +271,9 @@ class StoichTable:
     concentration: str | None
 
 
-def _scaled_column(key: str, quantity: str, family, values: list[float | None], reference: list[bool]) -> Column:
+def _scaled_column(
+    key: str, quantity: str, family, values: list[float | None], reference: list[bool]
+) -> Column:
     ref = sorted(abs(v) for v, r in zip(values, reference) if v is not None and r) or sorted(
         abs(v) for v in values if v is not None
     )
@@ -323,11 +335,17 @@ def stoich_table(payload: dict) -> StoichTable | None:
         elif key == "mmol":
             cols.append(_scaled_column(key, "Amount", _AMOUNT, data, reference))
         elif key == "theoretical_g":
-            cols.append(_scaled_column(key, "Theoretical", _MASS, data, [x is not None for x in data]))
+            cols.append(
+                _scaled_column(key, "Theoretical", _MASS, data, [x is not None for x in data])
+            )
         elif key == "density_g_ml":
-            cols.append(Column(key, "Density (g/mL)", ["" if x is None else f"{x:.3f}" for x in data]))
+            cols.append(
+                Column(key, "Density (g/mL)", ["" if x is None else f"{x:.3f}" for x in data])
+            )
         elif key == "purity":
-            cols.append(Column(key, "Purity (%)", ["" if x is None else fmt_number(100 * x) for x in data]))
+            cols.append(
+                Column(key, "Purity (%)", ["" if x is None else fmt_number(100 * x) for x in data])
+            )
         elif key == "equiv":
             cols.append(Column(key, "Equiv", ["" if x is None else _equiv(x) for x in data]))
         elif key == "yield_pct":
@@ -335,7 +353,8 @@ def stoich_table(payload: dict) -> StoichTable | None:
         else:
             numeric = all(isinstance(x, (int, float)) for x in data if x is not None)
             cells = [
-                "" if x is None else (fmt_number(x) if isinstance(x, float) else str(x)) for x in data
+                "" if x is None else (fmt_number(x) if isinstance(x, float) else str(x))
+                for x in data
             ]
             cols.append(Column(key, key.replace("_", " ").capitalize(), cells, numeric))
     conc = None
@@ -347,7 +366,11 @@ def stoich_table(payload: dict) -> StoichTable | None:
             conc += f" in {fmt_number(ml * factor)} {unit}"
     return StoichTable(
         cols,
-        [comps.get(r["component"]) or Compound(r["component"], "?", r.get("text", ""), "", r.get("text", "")) for r in rows],
+        [
+            comps.get(r["component"])
+            or Compound(r["component"], "?", r.get("text", ""), "", r.get("text", ""))
+            for r in rows
+        ],
         [r.get("read_as") or "" for r in rows],
         limiting_label(payload),
         conc,

@@ -21,7 +21,7 @@ MOL3D_MIME = "application/vnd.chemcheck.mol3d+json"
 EMBED_TIMEOUT_S = 5
 MAX_EMBED_ATOMS = 300
 
-__all__ = ["embed_3d", "View3D", "view3d", "MOL3D_MIME", "HIGHLIGHT_3D"]
+__all__ = ["HIGHLIGHT_3D", "MOL3D_MIME", "View3D", "embed_3d", "view3d"]
 
 # Halo colours of the 3D view, chosen far from every element colour 3Dmol.js draws (its Jmol,
 # RasMol and default tables): deep pink and electric violet are at least 67 RGB units from the

@@ -17,13 +17,27 @@ pytestmark = pytest.mark.browser
 
 ARTIFACTS = Path(__file__).resolve().parent / "artifacts"
 DOCS_IMAGES = Path(__file__).resolve().parents[2] / "docs" / "images"
-DOCS_SHOWN = {"report-light-1400.png", "report-dark-1400.png", "review-panel.png"}  # what the README shows
+DOCS_SHOWN = {
+    "report-light-1400.png",
+    "report-dark-1400.png",
+    "review-panel.png",
+}  # what the README shows
 
 # a demo scenario of our own: an amide at the bench and the same amide at 100 g scale
 AMIDE = "NCc1ccc(F)cc1.O=C(Cl)c1ccco1>CCN(CC)CC.ClCCl>O=C(NCc1ccc(F)cc1)c1ccco1"
-AMIDE_AMOUNTS = {"NCc1ccc(F)cc1": "1.25 g", "O=C(Cl)c1ccco1": "1.1 equiv", "CCN(CC)CC": "1.5 equiv", "ClCCl": "20 mL"}
+AMIDE_AMOUNTS = {
+    "NCc1ccc(F)cc1": "1.25 g",
+    "O=C(Cl)c1ccco1": "1.1 equiv",
+    "CCN(CC)CC": "1.5 equiv",
+    "ClCCl": "20 mL",
+}
 LARGE = "NCc1ccccc1.CC(=O)Cl>CCN(CC)CC.ClCCl>CC(=O)NCc1ccccc1"
-LARGE_AMOUNTS = {"NCc1ccccc1": "107 g", "CC(=O)Cl": "1.1 equiv", "CCN(CC)CC": "1.5 equiv", "ClCCl": "1.25 L"}
+LARGE_AMOUNTS = {
+    "NCc1ccccc1": "107 g",
+    "CC(=O)Cl": "1.1 equiv",
+    "CCN(CC)CC": "1.5 equiv",
+    "ClCCl": "1.25 L",
+}
 FLAGGED = "Nc1ccccc1.CC(=O)Cl>AlCl3>CC(=O)c1ccc(N)cc1"
 
 
@@ -128,10 +142,18 @@ def test_report_reads_at_every_width_in_both_themes(lab, page, width, theme):
     lab.write_notebook(name, cells)
     page.set_viewport_size({"width": width, "height": 1600})
     open_notebook(page, lab, name, wait_kernel=False)
-    page.wait_for_function("() => document.querySelectorAll('.jp-OutputArea-output .cc-report').length === 3", timeout=60_000)
+    page.wait_for_function(
+        "() => document.querySelectorAll('.jp-OutputArea-output .cc-report').length === 3",
+        timeout=60_000,
+    )
     want = "JupyterLab Dark" if theme == "dark" else "JupyterLab Light"
-    page.evaluate(f"window.jupyterapp.commands.execute('apputils:change-theme', {{theme: '{want}'}})")
-    page.wait_for_function(f"() => document.body.dataset.jpThemeLight === '{str(theme == 'light').lower()}'", timeout=30_000)
+    page.evaluate(
+        f"window.jupyterapp.commands.execute('apputils:change-theme', {{theme: '{want}'}})"
+    )
+    page.wait_for_function(
+        f"() => document.body.dataset.jpThemeLight === '{str(theme == 'light').lower()}'",
+        timeout=30_000,
+    )
     page.wait_for_timeout(300)  # the theme's style sheet applies on the next frame
     first = page.locator(".jp-OutputArea-output .cc-report").first
     shot(first, f"report-{theme}-{width}.png")
@@ -141,9 +163,16 @@ def test_report_reads_at_every_width_in_both_themes(lab, page, width, theme):
     assert m["broken"] == [], m["broken"]
     assert m["low"] == [], m["low"]
     page.locator(".jp-OutputArea-output .cc-report").nth(1).scroll_into_view_if_needed()
-    shot(page.locator(".jp-OutputArea-output .cc-report").nth(1), f"report-large-{theme}-{width}.png")
+    shot(
+        page.locator(".jp-OutputArea-output .cc-report").nth(1), f"report-large-{theme}-{width}.png"
+    )
     # the bench scale reads in mmol and g, the 100 g batch in mol and L: units fit the scale
-    headers = page.locator(".jp-OutputArea-output .cc-report").nth(1).locator(".cc-stoich th").all_inner_texts()
+    headers = (
+        page.locator(".jp-OutputArea-output .cc-report")
+        .nth(1)
+        .locator(".cc-stoich th")
+        .all_inner_texts()
+    )
     assert "Amount (mol)" in headers and "Volume (L)" in headers, headers
 
 
@@ -172,7 +201,12 @@ def test_rings_round_highlighted_atoms_clear_their_labels(lab, page):
             x, y, w, h = box
             corners = [(x, y), (x + w, y), (x, y + h), (x + w, y + h)]
             inner = r - stroke / 2
-            assert all(((px - cx) ** 2 + (py - cy) ** 2) ** 0.5 < inner for px, py in corners), (cx, cy, r, box)
+            assert all(((px - cx) ** 2 + (py - cy) ** 2) ** 0.5 < inner for px, py in corners), (
+                cx,
+                cy,
+                r,
+                box,
+            )
             checked += 1
     assert checked >= 2  # the aniline N and the Al of AlCl3
     shot(page.locator(".jp-OutputArea-output .cc-report").first, "report-flagged.png")
