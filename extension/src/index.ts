@@ -12,6 +12,7 @@ import { ISettingRegistry } from '@jupyterlab/settingregistry';
 import { SplitPanel, Widget } from '@lumino/widgets';
 
 import { METADATA_KEY, type ReviewSettings, notify, parseAcks, setBridge, withAck } from './ack';
+import { ACK_BLOCK, ackBlock } from './ackhtml';
 import { el } from './dom';
 import type { Finding, Report } from './payload';
 import { ACKNOWLEDGEABLE, compounds, reactionText, readableTime, sortFindings } from './present';
@@ -51,6 +52,34 @@ export function reactionInLabels(report: Report): string {
 export function openFindings(entry: Entry): Finding[] {
   const keys = new Set(entry.acks.map(a => a.finding));
   return sortFindings(entry.report).shown.filter(f => ACKNOWLEDGEABLE.includes(f.severity) && !keys.has(findingKey(f)));
+}
+
+type Outputs = {
+  length: number;
+  get: (i: number) => { toJSON: () => Record<string, unknown> };
+  set: (i: number, value: Record<string, unknown>) => void;
+};
+
+/** Write the cell's acknowledgements into the static HTML of its recorded reports. */
+export function recordAcksInOutputs(cell: Cell, acks: Acknowledgement[]): void {
+  if (cell.model.type !== 'code') {
+    return;
+  }
+  const outputs = (cell.model as unknown as { outputs: Outputs }).outputs;
+  for (let i = 0; i < outputs.length; i++) {
+    const json = outputs.get(i).toJSON();
+    const data = (json.data ?? {}) as Record<string, unknown>;
+    const report = data[MIME];
+    if (!isReport(report)) {
+      continue;
+    }
+    const raw = data['text/html'];
+    const html = (Array.isArray(raw) ? raw.join('') : typeof raw === 'string' ? raw : '').replace(ACK_BLOCK, '');
+    const next = html + ackBlock(report, acks);
+    if (next !== (Array.isArray(raw) ? raw.join('') : raw)) {
+      outputs.set(i, { ...json, data: { ...data, 'text/html': next } });
+    }
+  }
 }
 
 /** Bring a cell into view and put the focus on one finding of its report (and open its note form). */
@@ -318,7 +347,13 @@ const plugin: JupyterFrontEndPlugin<void> = {
           return;
         }
         const ack: Acknowledgement = { finding: key, rule: finding.rule, who, when: new Date().toISOString(), note };
-        cell.model.setMetadata(METADATA_KEY, withAck(cell.model.getMetadata(METADATA_KEY), ack));
+        const meta = withAck(cell.model.getMetadata(METADATA_KEY), ack);
+        cell.model.setMetadata(METADATA_KEY, meta);
+        try {
+          recordAcksInOutputs(cell, parseAcks(meta));
+        } catch (err) {
+          console.warn('chemcheck: acknowledgements not written into the static report', err);
+        }
         notify();
       });
     };

@@ -74,6 +74,14 @@ def test_acknowledgement_is_stored_in_the_notebook(lab, page):
     html = out.read_text()
     assert "Acknowledged by R. Reviewer" in html and "2 equiv of amine used, see cell 4" in html
     assert "#f9a825" in html  # the warning badge
+    # and so does a plain HTML export: the acknowledgement is written into the report's static HTML
+    subprocess.run(
+        [sys.executable, "-m", "nbconvert", "--to", "html", "--output", "ack-plain", str(lab.root / "ack.ipynb")],
+        check=True, capture_output=True, timeout=300,
+    )
+    plain = (lab.root / "ack-plain.html").read_text()
+    assert "acknowledged by R. Reviewer" in plain and "2 equiv of amine used, see cell 4" in plain
+    assert "#f9a825" in plain
     # the group's CI sees it
     proc = subprocess.run(
         [sys.executable, "-m", "chemcheck", "review", str(lab.root / "ack.ipynb"), "--fail-on", "warning"],
