@@ -33,13 +33,16 @@ system-deps:
 
 $(LABEXT): $(EXT_SOURCES)
 	@test -x $(BIN)/jlpm || { $(PYTHON) -m venv $(VENV) && $(BIN)/python -m pip install -q 'jupyterlab>=4.4,<5'; }
-	cd extension && jlpm install && jlpm build:prod
+	@# yarn prints a line per cached package (YN0013): keep its warnings and errors only
+	cd extension && set -o pipefail && jlpm install 2>&1 | { grep -vE 'YN0013|YN0000: (┌|└|│ *$$)' || true; } && jlpm build:prod
 	@touch $@
 
 extension: $(LABEXT)
 
 ## open JupyterLab on the demo notebooks (127.0.0.1 only)
 lab: install
+	@echo "chemcheck: JupyterLab starts on port $(PORT) (another: make lab PORT=8890);"
+	@echo "chemcheck: open the http://127.0.0.1:$(PORT)/lab?token=... address it prints below."
 	$(BIN)/jupyter lab --no-browser --ServerApp.ip=127.0.0.1 --ServerApp.port=$(PORT) \
 	  --ServerApp.root_dir=$(CURDIR)/notebooks $(ROOT_FLAG)
 

@@ -244,3 +244,8 @@ def _run_batch(args) -> int:
             print(f"chemcheck batch: findings at {args.fail_on} level or above", file=sys.stderr)
             return 1
     return 2 if failed else 0
+
+
+from .export import add_export_command  # noqa: E402  (display code owns the export)
+
+command(add_export_command)  # chemcheck export NOTEBOOK

@@ -1,60 +1,78 @@
-"""The compact plain-text report: findings first, then the components."""
+"""The compact plain-text report: the verdict, the findings, safety, then the table."""
 
 from __future__ import annotations
 
-from .findings import SEVERITIES
+from .display import present as P
 
 _WORD = {"error": "ERROR", "warning": "WARNING", "info": "NOTE"}
 
 
 def render_text(report) -> str:
-    lines = [f"chemcheck: {report.reaction.text}"]
-    c = report.counts()
-    lines.append(f"{c['error']} error(s), {c['warning']} warning(s), {c['info']} note(s)")
-    comps = report.components
-    for sev in SEVERITIES:
-        for f in report.findings:
-            if f.severity != sev:
-                continue
-            lines.append(f"{_WORD[sev]} [{f.rule}] {f.message}")
-            if f.atoms:
-                where = ", ".join(
-                    f"{comps[ci].text} atom {ai + 1} ({comps[ci].mol.GetAtomWithIdx(ai).GetSymbol()})"
-                    for ci, ai in f.atoms
-                    if ci < len(comps) and ai < comps[ci].mol.GetNumAtoms()
-                )
-                lines.append(f"    atoms: {where}")
-            if f.fix:
-                lines.append(f"    fix: {f.fix}")
+    payload = report.to_dict()
+    try:
+        from .display.bundle import _labels
+
+        payload["labels"] = _labels(report)
+    except Exception:  # the text must never fail for want of labels
+        pass
+    return render_payload_text(payload, report.reaction.text)
+
+
+def render_payload_text(payload: dict, reaction: str | None = None) -> str:
+    comps = P.compounds(payload)
+    s = P.sort_findings(payload)
+    reaction = reaction or (payload.get("input") or {}).get("reaction") or ""
+    lines = [P.verdict(payload, s), f"reaction: {reaction}"]
+    if s.by_products:
+        lines.append("by-products not drawn: " + ", ".join(m["name"] for m in s.by_products))
+    for f in s.shown:
+        lines.append(f"{_WORD[f['severity']]} [{f['rule']}] {f['message']}")
+        place = P.where(f, comps)
+        if place:
+            lines.append(f"    at {place}")
+        fix = P.fix_text(f)
+        if fix:
+            lines.append(f"    fix: {fix}")
+    for f in s.balance_notes:
+        lines.append(f"NOTE [{f['rule']}] {f['message']}")
+    if s.safety:
+        lines.append("safety:")
+        lines.extend(f"  - {x}" for x in s.safety)
+        if s.safety_sentence:
+            lines.append(f"  {s.safety_sentence}")
     lines.append("components:")
-    for comp in comps:
-        name = f" ({comp.name})" if comp.name and comp.name != comp.text else ""
-        kind = f", {comp.kind}" if comp.kind else ""
-        lines.append(f"  {comp.index + 1}. {comp.role}{kind}: {comp.text}{name}  {comp.formula}  {comp.mw:.2f} g/mol")
-    st = getattr(report, "stoichiometry", None)
+    for x in payload.get("components") or []:
+        c = comps[x["index"]]
+        role = x.get("role_in_reaction") or x.get("kind") or x["role"]
+        mw = "" if x.get("mw") is None else f"  {x['mw']:.2f} g/mol"
+        lines.append(f"  {c.number:>2}  {c.label}: {role}, {x['text']}  {x['formula']}{mw}")
+    st = P.stoich_table(payload)
     if st is not None:
         lines.append("stoichiometry:")
-        lines.append(f"  {'component':24s} {'MW':>8s} {'mass g':>9s} {'mL':>8s} {'mmol':>9s} {'equiv':>6s}  read as")
-        for r in st.rows:
-            def f(x, w, d=4):
-                if x is None:
-                    return " " * (w - 1) + "-"
-                return f"{x:{w}.0f}" if abs(x) >= 10**d else f"{x:{w}.{d}g}"  # 12480, never 1.248e+04
-            lines.append(
-                f"  {r.component.text[:24]:24s} {r.component.mw:8.2f} {f(r.mass_g, 9)} {f(r.volume_ml, 8)} "
-                f"{f(r.mmol, 9)} {f(r.equiv, 6, 3)}  {r.read_as or ''}"
-            )
-            if r.theoretical_g is not None:
-                y = f", yield {r.yield_pct:.1f} %" if r.yield_pct is not None else ""
-                from .units import fmt_mass
-
-                lines.append(f"  {'':24s} theoretical {fmt_mass(r.theoretical_g)}{y}")
-        if st.limiting is not None:
-            lines.append(f"  limiting reagent: {st.limiting.component.label}")
-        if st.concentration_m:
-            from .units import fmt_volume
-
-            lines.append(f"  concentration: {st.concentration_m:.3g} M in {fmt_volume(st.total_volume_ml)}")
-        if st.atom_economy_pct is not None:
-            lines.append(f"  atom economy {st.atom_economy_pct:.1f} %" + (f", PMI {st.pmi:.1f}, E-factor {st.e_factor:.1f}" if st.pmi else ""))
+        name_w = min(max(len(c.label) for c in st.compounds), 28)
+        widths = [max(len(col.header), *(len(v) for v in col.cells)) for col in st.columns]
+        lines.append(
+            "  "
+            + f"{'Compound':{name_w}s}  "
+            + "  ".join(f"{col.header:>{w}s}" for col, w in zip(st.columns, widths))
+        )
+        for k, comp in enumerate(st.compounds):
+            cells = "  ".join(f"{col.cells[k]:>{w}s}" for col, w in zip(st.columns, widths))
+            lines.append(f"  {comp.label[:name_w]:{name_w}s}  {cells}")
+            if st.read_as[k]:
+                lines.append(f"  {'':{name_w}s}  read as {st.read_as[k]}")
+        if st.limiting:
+            lines.append(f"  limiting reagent: {st.limiting}")
+        if st.concentration:
+            lines.append(f"  concentration: {st.concentration}")
+        metrics = payload.get("metrics") or {}
+        if metrics.get("atom_economy_pct") is not None:
+            extra = ""
+            if metrics.get("pmi") is not None:
+                extra = f", PMI {metrics['pmi']:.1f}, E-factor {metrics.get('e_factor') or 0:.1f}"
+            lines.append(f"  atom economy {metrics['atom_economy_pct']:.1f} %{extra}")
+    scale = payload.get("scale")
+    if scale and scale.get("cautions"):
+        lines.append("scale-up cautions:")
+        lines.extend(f"  - {c}" for c in scale["cautions"])
     return "\n".join(lines)

@@ -1,5 +1,6 @@
 """The durable bundle, drawings, 3D, the check pad and the cell magic (no kernel needed)."""
 
+import re
 import xml.etree.ElementTree as ET
 from html import escape
 
@@ -21,14 +22,52 @@ def test_bundle_has_every_static_type():
     ET.fromstring(b["image/svg+xml"])  # well-formed SVG
 
 
+def _said(f, text: str, esc=lambda x: x) -> bool:
+    """A finding is in the report: whole, or (hazard cautions) without the deferral sentence,
+    which the Safety section says once."""
+    body = f.message[: -len(f.fix)].rstrip() if f.fix and f.message.endswith(f.fix) else f.message
+    return esc(body) in text
+
+
 def test_every_finding_is_in_the_html_and_the_text():
     report = chemcheck.check(FLAGGED)
     b = report._repr_mimebundle_()
     for f in report.findings:
-        assert escape(f.message) in b["text/html"]
-        assert f.message in b["text/plain"]
+        assert _said(f, b["text/html"], escape), f.rule
+        assert _said(f, b["text/plain"]), f.rule
     html = b["text/html"].lower()
-    assert "<script" not in html and "<style" not in html and " style=" not in html
+    assert "<script" not in html and "<style" not in html
+    # inline colours only (severity badges and borders): nothing that positions or hides content
+    for decl in re.findall(r' style="([^"]*)"', html):
+        for prop in re.findall(r"([a-z-]+)\s*:", decl):
+            assert prop in {
+                "background-color", "color", "padding", "padding-left", "border-radius", "font-weight",
+                "border-left", "margin", "text-align", "white-space", "overflow-x", "max-width",
+                "height", "opacity", "font-style", "list-style",
+            }, prop
+
+
+def test_safety_sentence_is_said_once_and_fixes_never_repeat_the_message():
+    # acetyl chloride and AlCl3: two hazard classes, one SDS / safety-review sentence
+    b = chemcheck.check(FLAGGED)._repr_mimebundle_()
+    for kind in ("text/html", "text/plain"):
+        assert b[kind].count("institution") == 1, kind
+    assert "Fix:</em> Check the SDS" not in b["text/html"]
+
+
+def test_notes_are_not_acknowledged_and_the_missing_by_product_is_drawn():
+    from chemcheck.display.html import render_html
+
+    report = chemcheck.check("NCc1ccccc1.CC(=O)Cl>CCN(CC)CC>CC(=O)NCc1ccccc1")
+    b = report._repr_mimebundle_()
+    payload = b[chemcheck.MIME_TYPE]
+    assert report.by_rule("unbalanced-equation")
+    assert payload["drawing"]["by_products"] == ["HCl"]
+    assert "+ HCl" in b["image/svg+xml"]
+    html = render_html(payload, acknowledgements=[])
+    # the note is folded into the Balance section, not listed as a finding to acknowledge
+    assert "Not acknowledged" not in html
+    assert "HCl is not drawn among the products" in html.split("<summary><strong>Balance")[1]
 
 
 def test_payload_carries_the_inputs_so_the_check_can_be_repeated():
@@ -95,7 +134,28 @@ def test_3d_view_has_hydrogens_and_highlights():
     assert MOL3D_MIME in b and "image/svg+xml" in b
     block = b[MOL3D_MIME]["molblock"]
     assert " H " in block  # hydrogens shown
-    assert b[MOL3D_MIME]["highlights"] == [{"atom": 0, "color": "#db332d"}]
+    assert b[MOL3D_MIME]["highlights"] == [{"atom": 0, "color": "#ff1493", "severity": "error"}]
+
+
+def test_3d_highlight_colours_are_far_from_every_element_colour():
+    from pathlib import Path
+
+    from chemcheck.display.threed import HIGHLIGHT_3D
+
+    src = Path(__file__).resolve().parents[1] / "extension" / "node_modules" / "3dmol" / "src" / "colors.ts"
+    if not src.exists():
+        pytest.skip("3Dmol.js sources not installed (jlpm install in extension/)")
+    # every element colour 3Dmol.js can draw (its Jmol, RasMol and default tables)
+    table = {int(h, 16) for h in re.findall(r"\b[A-Z][a-z]?\s*:\s*0x([0-9a-fA-F]{6})", src.read_text())}
+    assert len(table) > 100
+
+    def rgb(v):
+        return ((v >> 16) & 255, (v >> 8) & 255, v & 255)
+
+    for sev, colour in HIGHLIGHT_3D.items():
+        c = rgb(int(colour[1:], 16))
+        nearest = min(sum((x - y) ** 2 for x, y in zip(c, rgb(e))) ** 0.5 for e in table)
+        assert nearest > 60, (sev, nearest)
 
 
 def test_3d_falls_back_to_2d_when_embedding_is_impossible():
@@ -147,3 +207,129 @@ def test_magic_prints_one_line_on_bad_input(capsys):
     chemcheck_cell("", "CCN.NCc1ccccc>>C")
     err = capsys.readouterr().err
     assert err.strip().startswith("chemcheck: component 2") and "Traceback" not in err
+
+
+def _notebook_with_a_recorded_check(tmp_path):
+    import nbformat
+
+    from chemcheck.review import finding_key
+
+    report = chemcheck.check(FLAGGED)
+    bundle = report._repr_mimebundle_()
+    nb = nbformat.v4.new_notebook()
+    cell = nbformat.v4.new_code_cell("chemcheck.check(...)", execution_count=2)
+    cell.outputs = [nbformat.v4.new_output("display_data", data=bundle)]
+    f = report.findings[0]
+    assert f.severity == "error"
+    cell.metadata["chemcheck"] = {
+        "acknowledgements": [
+            {
+                "finding": finding_key(f.rule, f.message, f.atoms),
+                "rule": f.rule,
+                "who": "R. Reviewer",
+                "when": "2026-12-04T18:40:00.000Z",
+                "note": "3 equiv AlCl3 planned",
+            }
+        ]
+    }
+    nb.cells = [nbformat.v4.new_markdown_cell("# plan"), cell]
+    path = tmp_path / "plan.ipynb"
+    nbformat.write(nb, str(path))
+    return path
+
+
+def test_export_shows_acknowledgements_and_severity_colours(tmp_path):
+    from chemcheck.export import export_notebook
+
+    out = export_notebook(_notebook_with_a_recorded_check(tmp_path))
+    html = out.read_text()
+    assert "Acknowledged by R. Reviewer, 4 Dec 2026, 18:40 UTC: 3 equiv AlCl3 planned" in html
+    assert "#c62828" in html  # the error badge keeps its colour without the extension's CSS
+    assert html.count("Not acknowledged") == 1  # the second error; notes are never asked for
+
+
+def test_nbconvert_runs_the_exporter_and_the_cli_writes_the_same(tmp_path):
+    import os
+    import subprocess
+    import sys
+
+    from chemcheck.cli import main
+
+    path = _notebook_with_a_recorded_check(tmp_path)
+    env = {**os.environ, "PYTHONPATH": os.getcwd()}
+    subprocess.run(
+        [sys.executable, "-m", "nbconvert", "--to", "chemcheck.export.ChemcheckHTMLExporter",
+         "--output", "via-nbconvert", str(path)],
+        check=True, env=env, capture_output=True,
+    )
+    assert "Acknowledged by R. Reviewer" in (tmp_path / "via-nbconvert.html").read_text()
+    assert main(["export", str(path), "-o", str(tmp_path / "via-cli.html")]) == 0
+    assert "Acknowledged by R. Reviewer" in (tmp_path / "via-cli.html").read_text()
+
+
+def test_check_pad_saves_a_readable_line_not_the_widget_repr(monkeypatch):
+    import IPython.display
+
+    shown = []
+    monkeypatch.setattr(IPython.display, "display", lambda *a, **k: shown.append((a, k)))
+    p = chemcheck.pad("CCCCN.CC(=O)Cl>Et3N>CCCCNC(C)=O")
+    p._ipython_display_()
+    widget_bundle = shown[0][0][0]
+    assert "application/vnd.jupyter.widget-view+json" in widget_bundle
+    assert "VBox(" not in widget_bundle["text/plain"] and "CCCCN.CC(=O)Cl" in widget_bundle["text/plain"]
+
+
+def test_table_headers_carry_units_that_fit_the_scale():
+    from chemcheck.display.present import fmt_number, stoich_table
+
+    # a 100 g batch in 1.25 L of dichloromethane (a demo scenario of our own)
+    report = chemcheck.check(
+        "NCc1ccccc1.CC(=O)Cl>CCN(CC)CC.ClCCl>CC(=O)NCc1ccccc1",
+        {"NCc1ccccc1": "107 g", "CC(=O)Cl": "1.1 equiv", "CCN(CC)CC": "1.5 equiv", "ClCCl": "1.25 L"},
+    )
+    payload = report._repr_mimebundle_()[chemcheck.MIME_TYPE]
+    st = stoich_table(payload)
+    headers = [c.header for c in st.columns]
+    assert headers == ["M (g/mol)", "Equiv", "Amount (mol)", "Mass (g)", "Volume (L)", "Theoretical (g)"]
+    amount = st.columns[2].cells
+    # benzylamine 107 g / 107.15 g/mol (RDKit average mass) = 0.9986 mol; DCM 1.25 L x 1.318 g/mL
+    # / 84.93 g/mol = 19.4 mol, never "1.94e+04 mmol"
+    assert amount[0] == "0.999" and amount[3] == "19.4"
+    assert [c.label for c in st.compounds][:2] == ["amine 1", "acetyl chloride (2)"]
+    assert report.table.columns.tolist()[:3] == ["role", "formula", "mw"]  # the DataFrame keeps its columns
+    assert [fmt_number(x) for x in (1.25, 10.99, 310.4, 0.0451)] == ["1.25", "11.0", "310", "0.0451"]
+
+
+def test_highlight_halos_sit_under_the_labels_and_clear_them():
+    from chemcheck.display.draw import SEVERITY_RGBA, draw_component
+
+    mol = chemcheck.check("Nc1ccccc1").components[0].mol
+    d = draw_component(mol, {0: SEVERITY_RGBA["error"]})
+    halo = d.svg.index('class="cc-halo"')
+    label = d.svg.index("class='atom-0'")
+    assert halo < label  # drawn first: the label is painted over it
+    m = re.search(r'class="cc-halo" cx="([\d.]+)" cy="([\d.]+)" r="([\d.]+)"[^>]*stroke-width="([\d.]+)"', d.svg)
+    cx, cy, r, w = map(float, m.groups())
+    x, y, bw, bh = d.label_boxes[0]
+    inner = r - w / 2
+    assert all(((px - cx) ** 2 + (py - cy) ** 2) ** 0.5 < inner for px, py in ((x, y), (x + bw, y), (x, y + bh), (x + bw, y + bh)))
+
+
+def test_one_bond_length_for_every_molecule_of_a_scheme():
+    payload = chemcheck.check("CCCCCCCCCCN.CC(=O)Cl>>CCCCCCCCCCNC(C)=O")._repr_mimebundle_()[chemcheck.MIME_TYPE]
+    lengths = []
+    for comp in payload["drawing"]["components"]:
+        (x0, y0), (x1, y1) = comp["atoms"][0], comp["atoms"][1]  # atoms 0-1 are bonded in each
+        lengths.append(((x1 - x0) ** 2 + (y1 - y0) ** 2) ** 0.5)
+    assert max(lengths) - min(lengths) < 1.0, lengths
+
+
+def test_the_bond_formed_is_marked_in_the_product():
+    # benzylamine + acetyl chloride: the new C-N bond of the amide (N-acylation)
+    report = chemcheck.check("NCc1ccccc1.CC(=O)Cl>CCN(CC)CC>CC(=O)NCc1ccccc1")
+    b = report._repr_mimebundle_()
+    centre = report.to_dict()["understanding"]["centre"]["formed_in_products"]
+    assert centre and all(c1 == c2 == 3 for (c1, _), (c2, _) in centre)  # in the product, compound 3
+    assert len(b[chemcheck.MIME_TYPE]["drawing"]["centre"]) == len(centre)
+    assert 'class="cc-centre"' in b["image/svg+xml"]
+    assert "marked in teal" in b["text/html"]

@@ -30,8 +30,12 @@ def test_bundle_payload_with_drawing_validates(reaction):
     bundle = chemcheck.check(reaction)._repr_mimebundle_()
     jsonschema.Draft202012Validator(schema()).validate(bundle[chemcheck.MIME_TYPE])
     drawing = bundle[chemcheck.MIME_TYPE]["drawing"]
-    n_drawn = sum(1 for c in chemcheck.check(reaction).components if c.role != "agent")
-    assert len(drawing["components"]) == n_drawn
+    comps = chemcheck.check(reaction).components
+    drawn = {c["component"] for c in drawing["components"]}
+    # every reactant and product; agents only when small and not a solvent (drawn above the arrow)
+    assert {c.index for c in comps if c.role != "agent"} <= drawn
+    assert all(comps[i].role != "agent" or comps[i].kind != "solvent" for i in drawn)
+    assert len(drawing["components"]) == len(drawn)
 
 
 def test_contract_names():

@@ -35,11 +35,54 @@ def _draw_candidates(payload: dict) -> None:
             drawn += 1
 
 
+def _labels(report) -> list[dict]:
+    """Compound numbers, labels and element symbols for the renderers (display only)."""
+    from .present import compounds
+
+    payload_comps = {"components": [], "labels": []}
+    for c in report.components:
+        p = report.perceptions.get(c.index)
+        payload_comps["components"].append(
+            {
+                "index": c.index,
+                "role": c.role,
+                "text": c.text,
+                "smiles": c.smiles,
+                "name": c.name,
+                "kind": c.kind,
+                "number": getattr(c, "number", None),
+                "nitrogens": [{"kind": s.kind} for s in (p.nitrogens if p else ())],
+            }
+        )
+    numbered = compounds(payload_comps)
+    out = []
+    for c in report.components:
+        entry = numbered[c.index]
+        # the check's own label once it names compounds by number ("benzylamine (1)", "amine 1")
+        own = getattr(c, "label", "") or ""
+        number = getattr(c, "number", None) or entry.number
+        label = own if own.endswith((f"({number})", f" {number}")) else entry.label
+        out.append(
+            {
+                "component": c.index,
+                "number": entry.number,
+                "label": label,
+                "elements": [a.GetSymbol() for a in c.mol.GetAtoms()],
+            }
+        )
+    return out
+
+
 def payload_with_drawing(report) -> tuple[dict, str | None]:
     payload = report.to_dict()
-    _draw_candidates(payload)
     try:
-        scheme = draw_scheme(report)
+        payload["labels"] = _labels(report)
+    except Exception:  # labels must never cost the user the report
+        pass
+    _draw_candidates(payload)
+    numbers = {e["component"]: e["number"] for e in payload.get("labels") or []}
+    try:
+        scheme = draw_scheme(report, numbers=numbers)
     except Exception:  # drawing must never cost the user the report
         return payload, None
     payload["drawing"] = {
@@ -54,10 +97,17 @@ def payload_with_drawing(report) -> tuple[dict, str | None]:
                 "y": p.y,
                 "width": p.drawn.width,
                 "height": p.drawn.height,
-                "atoms": [[p.x + ax, p.y + ay] for ax, ay in p.drawn.atoms],
+                "atoms": [[round(p.x + ax, 1), round(p.y + ay, 1)] for ax, ay in p.drawn.atoms],
+                "number": p.number,
+                "label_box": [
+                    None if b is None else [round(p.x + b[0], 1), round(p.y + b[1], 1), b[2], b[3]]
+                    for b in p.drawn.label_boxes
+                ],
             }
             for p in scheme.placed
         ],
+        "by_products": scheme.by_products,
+        "centre": scheme.centre,
     }
     return payload, scheme.svg
 
@@ -66,7 +116,7 @@ def mimebundle(report) -> dict:
     payload, svg = payload_with_drawing(report)
     bundle = {
         MIME_TYPE: payload,
-        "text/html": render_html(report, payload, svg),
+        "text/html": render_html(payload, svg),
         "text/plain": report.to_text(),
     }
     if svg:

@@ -12,6 +12,7 @@ from __future__ import annotations
 from html import escape
 
 from ..errors import ChemcheckError
+from ..report import MIME_TYPE
 
 __all__ = ["CheckPad", "pad"]
 
@@ -114,10 +115,11 @@ class CheckPad:
             self._show_error(str(exc))
             return
         self._report = report
-        c = report.counts()
-        self.status.value = (
-            f"<span class='cc-pad-ok'>{c['error']} error(s), {c['warning']} warning(s), {c['info']} note(s)</span>"
-        )
+        from .bundle import mimebundle
+        from .present import verdict
+
+        bundle = mimebundle(report)
+        self.status.value = f"<span class='cc-pad-ok'>{escape(verdict(bundle[MIME_TYPE]))}</span>"
         st = report.stoichiometry
         for comp in report.components:
             field = self._amount_fields.get(comp.text)
@@ -125,10 +127,8 @@ class CheckPad:
                 continue
             row = st.row_for(comp.index) if st is not None else None
             field._read_label.value = escape(row.read_as) if row is not None and row.read_as else ""
-        from .bundle import mimebundle
-
         # set the outputs directly: safe from the debounce thread, no display hooks involved
-        self.output.outputs = ({"output_type": "display_data", "data": mimebundle(report), "metadata": {}},)
+        self.output.outputs = ({"output_type": "display_data", "data": bundle, "metadata": {}},)
 
     def _show_error(self, message: str, error: bool = True) -> None:
         cls = "cc-pad-error" if error else "cc-pad-hint"
@@ -172,11 +172,20 @@ class CheckPad:
             self._record_handle.update(self._report)
         return self._report
 
+    def static_text(self) -> str:
+        """What the pad shows where no widget runs (a saved notebook, an export)."""
+        text = self.reaction.value.strip() or "(empty)"
+        return f"chemcheck pad for {text}: live only; the recorded check is the output below"
+
     def _ipython_display_(self) -> None:
         from IPython.display import display
 
         self.live = True
-        display(self.box)
+        # the widget's own text would be "VBox(children=(Text(…": saved notebooks and exports
+        # show this line instead, and the recorded check below is the static report
+        bundle = dict(self.box._repr_mimebundle_() or {})
+        bundle["text/plain"] = self.static_text()
+        display(bundle, raw=True)
         # the place where Record writes: an ordinary output of this cell
         self._record_handle = display({"text/plain": "(no check recorded yet: press Record check)"}, raw=True, display_id=True)
 

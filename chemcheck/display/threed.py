@@ -32,7 +32,12 @@ MAX_EMBED_ATOMS = 300
 # drawing stands in, with a note.
 EMBED_DEADLINE_S = 4.0
 
-__all__ = ["embed_3d", "embed_in_worker", "View3D", "view3d", "MOL3D_MIME"]
+__all__ = ["HIGHLIGHT_3D", "MOL3D_MIME", "View3D", "embed_3d", "embed_in_worker", "view3d"]
+
+# Halo colours of the 3D view, chosen far from every element colour 3Dmol.js draws (its Jmol,
+# RasMol and default tables): deep pink and electric violet are at least 67 RGB units from the
+# nearest (tests/test_display.py measures it). Notes are not highlighted in 3D.
+HIGHLIGHT_3D = {"error": "#ff1493", "warning": "#5500ff"}
 
 
 def embed_3d(mol: Chem.Mol, *, seed: int = 0xC0FFEE, timeout_s: int = EMBED_TIMEOUT_S) -> Chem.Mol | None:
@@ -159,17 +164,19 @@ def view3d(report_or_smiles, component: int | str = 0) -> View3D:
             raise ChemcheckError(f"component {component} out of range (0-{len(comps) - 1})")
         comp = comps[component]
     colours: dict[int, tuple] = {}
+    severity: dict[int, str] = {}
     order = {"info": 0, "warning": 1, "error": 2}
     for f in sorted(report.findings, key=lambda f: order[f.severity]):
         for ci, ai in f.atoms:
             if ci == comp.index:
                 colours[ai] = SEVERITY_RGBA[f.severity]
+                severity[ai] = f.severity
     if comp.sanitization == "full":
         mol3d, note = embed_in_worker(comp.mol)
     else:
         mol3d, note = None, "the structure was read without valence checks"
     highlights = [
-        {"atom": ai, "color": "#%02x%02x%02x" % tuple(int(255 * c) for c in rgba[:3])} for ai, rgba in colours.items()
+        {"atom": ai, "color": HIGHLIGHT_3D[sev], "severity": sev} for ai, sev in severity.items() if sev in HIGHLIGHT_3D
     ]
     svg = draw_component(comp.mol, colours).svg
     block = Chem.MolToMolBlock(mol3d) if mol3d is not None else None

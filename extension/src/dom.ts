@@ -73,3 +73,50 @@ export function fmt(v: unknown, digits = 4): string {
   }
   return String(v);
 }
+
+export interface Cell {
+  text: string;
+  numeric?: boolean;
+  title?: string;
+}
+
+/**
+ * A data table: numeric columns right-aligned and never wrapped (class cc-num), inside a
+ * wrapper that scrolls sideways when the table is wider than the output.
+ */
+export function dataTable(
+  className: string,
+  headers: Cell[],
+  rows: Array<{ cells: Cell[]; title?: string }>
+): HTMLElement {
+  const wrap = el('div', 'cc-table-wrap');
+  const t = el('table', className);
+  const head = t.createTHead().insertRow();
+  for (const h of headers) {
+    const th = el('th', h.numeric ? 'cc-num' : undefined, h.text);
+    th.scope = 'col';
+    if (h.title) {
+      th.title = h.title;
+    }
+    head.appendChild(th);
+  }
+  const body = t.createTBody();
+  for (const r of rows) {
+    const tr = body.insertRow();
+    if (r.title) {
+      tr.title = r.title;
+    }
+    for (const c of r.cells) {
+      const td = tr.insertCell();
+      td.textContent = c.text;
+      if (c.numeric) {
+        td.className = 'cc-num';
+      }
+      if (c.title) {
+        td.title = c.title;
+      }
+    }
+  }
+  wrap.appendChild(t);
+  return wrap;
+}

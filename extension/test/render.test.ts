@@ -6,7 +6,7 @@ import { installDom } from './setup';
 installDom();
 
 // eslint-disable-next-line @typescript-eslint/no-var-requires
-import { findingKey, isReport, renderReport } from '../src/render';
+import { findingKey, isReport, renderReport, ringRadius } from '../src/render';
 import type { Report } from '../src/payload';
 
 const HOSTILE = '<img src=x onerror="globalThis.__pwned=1"><script>globalThis.__pwned=2</script>';
@@ -40,7 +40,7 @@ test('findings are grouped by severity, errors first, with their messages as tex
   assert.ok(items[0].classList.contains('cc-error'));
   assert.ok(items[1].classList.contains('cc-info'));
   assert.match(items[0].textContent ?? '', /no base/);
-  assert.match(items[0].textContent ?? '', /Atoms: CCN atom 3/);
+  assert.match(items[0].textContent ?? '', /At atom 3 of compound 1/);
 });
 
 test('markup in names, SMILES, notes and messages stays text', () => {
@@ -71,8 +71,17 @@ test('an acknowledged finding is shown as such and offers no button', () => {
   assert.ok(first.classList.contains('cc-acknowledged'));
   assert.match(first.textContent ?? '', /Acknowledged by A\. Reviewer/);
   assert.equal(first.querySelector('button'), null);
+  // notes are information: never asked to be acknowledged
   const second = node.querySelectorAll('.cc-finding')[1];
-  assert.ok(second.querySelector('button'));
+  assert.ok(second.classList.contains('cc-info'));
+  assert.equal(second.querySelector('button'), null);
+});
+
+test('warnings offer the acknowledgement button', () => {
+  const r = report();
+  r.findings[0] = { ...r.findings[0], severity: 'warning' };
+  const node = renderReport(r, { acknowledgements: [], onAcknowledge: () => undefined });
+  assert.ok(node.querySelector('.cc-finding.cc-warning button.cc-ack-button'));
 });
 
 test('hovering a finding draws circles at its atoms on the overlay', () => {
@@ -133,4 +142,50 @@ test('predicted products show their drawing as an image, the SMILES as text', ()
   assert.equal(img.alt, 'COc1ccc(C(C)=O)cc1');
   assert.equal(items[1].querySelectorAll('img').length, 0);
   assert.ok((items[1].textContent ?? '').includes('<script>'));
+});
+
+test('compounds are named by number and label, never by SMILES, in findings and tables', () => {
+  const r = report({
+    labels: [{ component: 0, number: '1', label: 'ethylamine (1)', elements: ['C', 'C', 'N'] }],
+    table: {
+      columns: ['formula', 'mw', 'mass_g', 'volume_ml', 'mmol', 'equiv', 'yield_pct'],
+      reference: null,
+      limiting: 'CCN',
+      rows: [
+        { component: 0, text: 'CCN', values: { formula: 'C2H7N', mw: 45.085, mass_g: 0.0451, volume_ml: null, mmol: 1.0, equiv: 1, yield_pct: null }, read_as: '1 mmol' }
+      ]
+    }
+  });
+  const node = renderReport(r);
+  const first = node.querySelector('.cc-finding') as HTMLElement;
+  assert.match(first.textContent ?? '', /At N of ethylamine \(1\)/);
+  const headers = [...node.querySelectorAll('.cc-stoich th')].map(th => th.textContent);
+  // empty columns (volume, yield) hidden; units in the headers; mass in mg at this scale
+  assert.deepEqual(headers, ['Compound', 'M (g/mol)', 'Equiv', 'Amount (mmol)', 'Mass (mg)']);
+  const cells = [...node.querySelectorAll('.cc-stoich td')].map(td => td.textContent);
+  assert.deepEqual(cells, ['ethylamine (1)', '45.09', '1.0', '1.00', '45.1']);
+  assert.match(node.querySelector('.cc-verdict')?.textContent ?? '', /limiting reagent ethylamine \(1\)/);
+  // collapsible sections are closed by default
+  const components = node.querySelector('details.cc-components') as HTMLDetailsElement;
+  assert.equal(components.open, false);
+});
+
+test('hazard cautions are gathered in one Safety section with the deferral sentence once', () => {
+  const sds = 'Check the SDS of each reagent, local regulations and your institution\'s safety review before running it.';
+  const r = report({
+    findings: [
+      { rule: 'hazard-caution', severity: 'info', title: 'h', message: `Acid chloride (2): corrosive. ${sds}`, atoms: [], fix: sds, references: [] },
+      { rule: 'hazard-caution', severity: 'info', title: 'h', message: `Lewis acid (a): reacts with water. ${sds}`, atoms: [], fix: sds, references: [] }
+    ]
+  });
+  const node = renderReport(r);
+  assert.equal(node.querySelectorAll('.cc-finding').length, 0);
+  assert.equal(node.querySelectorAll('.cc-safety li').length, 2);
+  assert.equal((node.textContent ?? '').split('institution').length - 1, 1);
+});
+
+test('the ring round a highlighted atom clears its label box', () => {
+  // label box 20 x 12 px whose centre is the atom: the ring goes round its corners
+  assert.ok(ringRadius([50, 50], [40, 44, 20, 12]) >= Math.hypot(10, 6) + 1);
+  assert.equal(ringRadius([50, 50], null), 14);
 });

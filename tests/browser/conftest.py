@@ -73,6 +73,17 @@ def lab():
         (tmp / sub).mkdir()
         env[var] = str(tmp / sub)
     env["JUPYTERLAB_SETTINGS_DIR"] = str(tmp / "settings")
+    # no news pop-up over the screenshots
+    news = tmp / "settings" / "@jupyterlab" / "apputils-extension"
+    news.mkdir(parents=True)
+    (news / "notification.jupyterlab-settings").write_text('{"fetchNews": "false"}')
+    # the extension built in this checkout wins over the one linked into the environment
+    built = Path(__file__).resolve().parents[2] / "chemcheck" / "labextension"
+    if (built / "package.json").exists():
+        (tmp / "data" / "labextensions").mkdir(parents=True)
+        (tmp / "data" / "labextensions" / "chemcheck-jupyterlab").symlink_to(built)
+        env["JUPYTER_PATH"] = os.pathsep.join([str(tmp / "data"), *filter(None, [env.get("JUPYTER_PATH")])])
+    env["PYTHONPATH"] = os.pathsep.join([str(Path(__file__).resolve().parents[2]), *filter(None, [env.get("PYTHONPATH")])])
     env["JUPYTERLAB_WORKSPACES_DIR"] = str(tmp / "workspaces")
     port = _free_port()
     cmd = [

@@ -53,6 +53,31 @@ def test_3d_view_draws_pixels(lab, page):
     assert srcs and all("/lab/extensions/chemcheck-jupyterlab/static/" in s for s in srcs)
 
 
+def test_3d_view_of_a_flagged_atom_has_a_legend(lab, page):
+    lab.write_notebook(
+        "three-flagged.ipynb",
+        [code_cell("import chemcheck\nchemcheck.view3d(chemcheck.check('Nc1ccccc1.CC(=O)Cl>AlCl3>CC(=O)c1ccc(N)cc1'), 0)")],
+    )
+    open_notebook(page, lab, "three-flagged.ipynb")
+    run_all_cells(page)
+    page.wait_for_selector(".cc-mol3d-stage canvas", timeout=60_000)
+    legend = page.wait_for_selector(".cc-mol3d-legend", timeout=30_000)
+    assert legend.inner_text().strip() == "flagged atom (error)"
+    swatch = page.evaluate("() => getComputedStyle(document.querySelector('.cc-mol3d-swatch')).backgroundColor")
+    assert swatch == "rgb(255, 20, 147)"  # HIGHLIGHT_3D["error"], #ff1493
+    # the frame fits the output: the canvas is as wide as its stage
+    sizes = page.evaluate(
+        "() => { const s = document.querySelector('.cc-mol3d-stage').getBoundingClientRect();"
+        " const c = document.querySelector('.cc-mol3d-stage canvas').getBoundingClientRect();"
+        " return [s.width, c.width, s.height, c.height]; }"
+    )
+    assert abs(sizes[0] - sizes[1]) <= 2 and abs(sizes[2] - sizes[3]) <= 2, sizes
+    page.wait_for_timeout(1500)  # let WebGL finish its first frame
+    from .test_report_renders import shot
+
+    shot(page.locator(".cc-mol3d").first, "view-3d.png")
+
+
 def test_recorded_report_renders_from_the_file_alone(lab, page):
     lab.write_notebook(
         "record.ipynb",
@@ -74,6 +99,10 @@ def test_recorded_report_renders_from_the_file_alone(lab, page):
     recorded = [o for o in outputs if chemcheck.MIME_TYPE in o.get("data", {})]
     assert recorded, "the recorded check is saved in the notebook file"
     assert recorded[0]["data"][chemcheck.MIME_TYPE]["input"]["reaction"] == "CCCCN.CC(=O)Cl>>CCCCNC(C)=O"
+    # where no widget runs (a saved file, an export) the pad reads as a line, not a widget repr
+    texts = ["".join(o.get("data", {}).get("text/plain", "")) for o in outputs]
+    assert not any(t.startswith("VBox(") for t in texts), texts
+    assert any(t.startswith("chemcheck pad for CCCCN.CC(=O)Cl") for t in texts), texts
     # reopen without running anything: the report renders from the file
     page.evaluate("window.jupyterapp.commands.execute('kernelmenu:shutdown')")
     page.reload()

@@ -19,14 +19,16 @@ SHORT = "CCCCN.CC(=O)Cl>>CCCCNC(C)=O"
 FLAGGED = "Nc1ccccc1.CC(=O)Cl>AlCl3>CC(=O)c1ccc(N)cc1"
 
 
-def report_cell(reaction, cell_id, metadata=None):
+def report_cell(reaction, cell_id, metadata=None, count=None):
     bundle = chemcheck.check(reaction)._repr_mimebundle_()
-    return code_cell(
+    cell = code_cell(
         f"chemcheck.check({reaction!r})",
         outputs=[{"output_type": "display_data", "data": bundle, "metadata": {}}],
         metadata=metadata,
         cell_id=cell_id,
     )
+    cell["execution_count"] = count
+    return cell
 
 
 def test_hovering_a_finding_highlights_its_atoms(lab, page):
@@ -56,12 +58,34 @@ def test_acknowledgement_is_stored_in_the_notebook(lab, page):
     item.locator(".cc-ack-button").click()
     item.locator(".cc-ack-note-input").fill("2 equiv of amine used, see cell 4")
     item.locator(".cc-ack-save").click()
+    # no reviewer name in the settings yet: asked for once, never a made-up guest name
+    page.wait_for_selector(".jp-Dialog input", timeout=30_000)
+    page.locator(".jp-Dialog input").fill("R. Reviewer")
+    page.locator(".jp-Dialog .jp-mod-accept").click()
     page.wait_for_selector('.jp-OutputArea-output .cc-finding.cc-acknowledged[data-rule="acid-scavenger-short"]', timeout=30_000)
     save_notebook(page)
     data = json.loads((lab.root / "ack.ipynb").read_text())
     [ack] = data["cells"][0]["metadata"]["chemcheck"]["acknowledgements"]
     assert ack["rule"] == "acid-scavenger-short" and ack["note"] == "2 equiv of amine used, see cell 4"
-    assert ack["who"] == "A. Reviewer" and ack["when"]
+    assert ack["who"] == "R. Reviewer" and ack["when"]
+    # the exported page keeps the acknowledgement and the severity colour
+    out = lab.root / "ack-export.html"
+    subprocess.run(
+        [sys.executable, "-m", "nbconvert", "--to", "chemcheck.export.ChemcheckHTMLExporter",
+         "--output", out.stem, str(lab.root / "ack.ipynb")],
+        check=True, capture_output=True, timeout=300,
+    )
+    html = out.read_text()
+    assert "Acknowledged by R. Reviewer" in html and "2 equiv of amine used, see cell 4" in html
+    assert "#f9a825" in html  # the warning badge
+    # and so does a plain HTML export: the acknowledgement is written into the report's static HTML
+    subprocess.run(
+        [sys.executable, "-m", "nbconvert", "--to", "html", "--output", "ack-plain", str(lab.root / "ack.ipynb")],
+        check=True, capture_output=True, timeout=300,
+    )
+    plain = (lab.root / "ack-plain.html").read_text()
+    assert "acknowledged by R. Reviewer" in plain and "2 equiv of amine used, see cell 4" in plain
+    assert "#f9a825" in plain
     # the group's CI sees it
     proc = subprocess.run(
         [sys.executable, "-m", "chemcheck", "review", str(lab.root / "ack.ipynb"), "--fail-on", "warning"],
@@ -76,17 +100,40 @@ def test_acknowledgement_is_stored_in_the_notebook(lab, page):
 
 
 def test_panel_lists_reports_and_jumps_to_a_cell(lab, page):
-    cells = [report_cell(SHORT, "p1"), code_cell("x = 1", cell_id="p2"), report_cell(FLAGGED, "p3")]
+    cells = [
+        {"cell_type": "markdown", "id": "p0", "metadata": {}, "source": "# Plan"},
+        report_cell(SHORT, "p1", count=2),
+        code_cell("x = 1", cell_id="p2"),
+        report_cell(FLAGGED, "p3", count=5),
+    ]
     lab.write_notebook("panel.ipynb", cells)
     open_notebook(page, lab, "panel.ipynb", wait_kernel=False)
     page.wait_for_selector(".jp-OutputArea-output .cc-report", timeout=60_000)
     page.evaluate("window.jupyterapp.commands.execute('chemcheck:open-review')")
     page.wait_for_function("() => document.querySelectorAll('.cc-review-entry').length === 2", timeout=30_000)
     entries = page.locator(".cc-review-entry")
-    assert "Cell 1" in entries.nth(0).inner_text() and "Cell 3" in entries.nth(1).inner_text()
-    assert "1 warning(s)" in entries.nth(0).inner_text()
+    # rows by the execution count the prompt shows ([2], [5]), markdown cells not counted
+    assert page.locator(".cc-review-cell").all_inner_texts() == ["[2]", "[5]"]
+    # compounds by label, the reaction SMILES only in the tooltip
+    labels = page.locator(".cc-review-labels").all_inner_texts()
+    assert labels[1].startswith("aniline (1) + acetyl chloride (2)"), labels
+    assert "Nc1ccccc1" not in entries.nth(1).inner_text()
+    assert "1 warning" in entries.nth(0).inner_text()
+    panel_width = page.locator("#chemcheck-review").evaluate("n => n.getBoundingClientRect().width")
+    assert panel_width >= 300, panel_width
     entries.nth(1).locator(".cc-review-jump").click()
-    page.wait_for_function("() => window.jupyterapp.shell.currentWidget.content.activeCellIndex === 2")
+    page.wait_for_function("() => window.jupyterapp.shell.currentWidget.content.activeCellIndex === 3")
+    from .test_report_renders import shot
+
+    shot(page.locator("#chemcheck-review"), "review-panel.png")
+    # the palette command jumps to the next finding still to acknowledge
+    page.evaluate(
+        "window.jupyterapp.shell.currentWidget.content.activeCellIndex = 0;"
+        "window.jupyterapp.commands.execute('chemcheck:next-unacknowledged')"
+    )
+    page.wait_for_function("() => window.jupyterapp.shell.currentWidget.content.activeCellIndex === 1")
+    page.wait_for_function("() => document.activeElement && document.activeElement.matches('.cc-finding')")
+    assert page.evaluate("() => window.jupyterapp.commands.hasCommand('chemcheck:next-unacknowledged')")
     # the severity filter hides the notes
     page.locator(".cc-review-filter").select_option("error")
     page.wait_for_function(
