@@ -47,6 +47,10 @@ def test_hovering_a_finding_highlights_its_atoms(lab, page):
 
 
 def test_acknowledgement_is_stored_in_the_notebook(lab, page):
+    # start with no reviewer name in the settings (an earlier test may have set one)
+    settings = lab.root.parent / "settings" / "chemcheck-jupyterlab" / "review.jupyterlab-settings"
+    settings.parent.mkdir(parents=True, exist_ok=True)
+    settings.write_text(json.dumps({"reviewerName": ""}))
     lab.write_notebook("ack.ipynb", [report_cell(SHORT, "a1")])
     open_notebook(page, lab, "ack.ipynb", wait_kernel=False)
     item = page.locator('.jp-OutputArea-output .cc-finding[data-rule="acid-scavenger-short"]').first
