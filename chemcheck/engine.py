@@ -138,10 +138,11 @@ def check(reaction: str | Reaction, amounts: dict[str, str] | None = None) -> Re
             )
     strict = bool(os.environ.get("CHEMCHECK_STRICT"))
     rules = list(registry().values())
+    budget.start_rules()
     for k, r in enumerate(rules):
         if budget.expired():  # the rules not started by the deadline are named, not run
             left = [x.id for x in rules[k:]]
-            budget.skip(f"{len(left)} rule{'s' if len(left) > 1 else ''} not started within {budget.deadline_s:g} s ({', '.join(left)})")
+            budget.skip(f"{len(left)} rule{'s' if len(left) > 1 else ''} not started within {budget.deadline_s:g} s of computing time ({', '.join(left)})")
             break
         try:
             findings.extend(r.check(ctx) or ())

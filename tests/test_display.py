@@ -214,7 +214,8 @@ def _notebook_with_a_recorded_check(tmp_path):
 
     from chemcheck.review import finding_key
 
-    report = chemcheck.check(FLAGGED)
+    # two errors: the aniline's nitrogen and the Et3N additive both take the AlCl3
+    report = chemcheck.check("Nc1ccccc1.CC(=O)Cl>AlCl3.CCN(CC)CC>CC(=O)c1ccc(N)cc1")
     bundle = report._repr_mimebundle_()
     nb = nbformat.v4.new_notebook()
     cell = nbformat.v4.new_code_cell("chemcheck.check(...)", execution_count=2)

@@ -2,6 +2,7 @@
 crash would show as a dead process), with a generous timeout as a guard against hangs.
 The time each takes is measured by the benchmark, not asserted here."""
 
+import json
 import subprocess
 import sys
 import textwrap
@@ -265,3 +266,21 @@ def test_a_structure_above_the_drawing_limit_is_shown_as_its_formula():
     bundle = mimebundle(report)
     assert f"H402N400: 400 heavy atoms, not drawn (limit {MAX_DRAWN_ATOMS})" in bundle["image/svg+xml"]
     ET.fromstring(bundle["image/svg+xml"])  # still one well-formed SVG
+
+
+def test_the_first_check_of_a_fresh_process_runs_every_rule():
+    # loading the tables, the property database and the mapper in a fresh kernel is not rule
+    # time: the first check with amounts must not skip rules to meet the deadline
+    import subprocess
+    import sys
+
+    code = (
+        "import chemcheck, json;"
+        "r = chemcheck.check('NCc1ccccc1.CCCCCCCCCC(=O)Cl>CCN(CC)CC>CCCCCCCCCC(=O)NCc1ccccc1',"
+        " {'NCc1ccccc1': '5.0 mmol', 'CCCCCCCCCC(=O)Cl': '1.1 mL'});"
+        "print(json.dumps([f.rule for f in r.findings]))"
+    )
+    out = subprocess.run([sys.executable, "-c", code], capture_output=True, text=True, timeout=300, check=True)
+    rules = json.loads(out.stdout.strip().splitlines()[-1])
+    assert "check-budget-reached" not in rules
+    assert "density-estimated" in rules

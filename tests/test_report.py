@@ -105,3 +105,13 @@ def test_a_failing_rule_becomes_a_note_not_a_crash(monkeypatch):
     report = chemcheck.check("CCN")
     [f] = report.by_rule("rule-failed")
     assert "broken-rule" in f.message and f.severity == "info"
+
+
+def test_free_aniline_with_alcl3_is_one_error_with_both_reasons():
+    # textbook pitfall (Clayden, Greeves & Warren, Organic Chemistry, 2nd ed., ch. 21): anilines
+    # do not undergo Friedel–Crafts reactions; the AlCl3 is taken up AND the complexed ring is
+    # deactivated. One pitfall, one finding.
+    report = chemcheck.check("Nc1ccccc1.CC(=O)Cl>Cl[Al](Cl)Cl>CC(=O)c1ccc(N)cc1")
+    errors = [f for f in report.findings if f.severity == "error"]
+    assert [f.rule for f in errors] == ["lewis-acid-quenched-by-amine"]
+    assert "taken up" in errors[0].message and "deactivating" in errors[0].message

@@ -268,6 +268,22 @@ def _centre_bonds(report) -> list[tuple[tuple[int, int], tuple[int, int]]]:
     return out
 
 
+def _scheme_coefficients(balance) -> dict[int, int]:
+    """The stoichiometric coefficients other than 1 that balance the equation, by component
+    index, when the drawn equation does not balance as it stands."""
+    if balance is None or not getattr(balance, "balanced", False) or getattr(balance, "drawn_balanced", True):
+        return {}
+    out: dict[int, int] = {}
+    for i, k in (getattr(balance, "coefficients", None) or {}).items():
+        try:
+            i, k = int(i), int(k)
+        except (TypeError, ValueError):
+            continue
+        if k > 1:
+            out[i] = k
+    return out
+
+
 def draw_scheme(report, highlight: bool = True, numbers: dict[int, str] | None = None) -> Scheme:
     """Reactants + reactants → products (+ greyed by-products), small agents drawn above the
     arrow and solvents named below it; each structure's compound number in bold beneath it."""
@@ -339,12 +355,20 @@ def draw_scheme(report, highlight: bool = True, numbers: dict[int, str] | None =
             f'font-weight="{weight}" fill="{fill}" text-anchor="{anchor}">{escape(s)}</text>'
         )
 
+    balance = getattr(report, "balance", None)
+    coefficients = _scheme_coefficients(balance)
+
     def put(comps):
         nonlocal x
         for k, c in enumerate(comps):
             if k:
                 parts.append(text(x + gap / 2, mid + 8, "+"))
                 x += gap
+            n = coefficients.get(c.index)
+            if n:
+                # the coefficient the balance needs, greyed like the by-products it brings
+                parts.append(text(x + 4, mid + 8, str(n), size=20, anchor="start", cls="cc-coefficient"))
+                x += 14 + 11 * len(str(n))
             d = drawn[c.index]
             y = mid - d.height / 2
             parts.append(_nest(d, x, y))
@@ -400,7 +424,6 @@ def draw_scheme(report, highlight: bool = True, numbers: dict[int, str] | None =
         parts.append(text(x + 20, mid + 8, "?", size=26))
         x += 40
     by_products = []
-    balance = getattr(report, "balance", None)
     for m in getattr(balance, "missing", None) or []:
         side = m.get("side") if isinstance(m, dict) else getattr(m, "side", None)
         if side != "product":

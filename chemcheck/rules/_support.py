@@ -93,6 +93,13 @@ def amount_mmol(ctx: Context, comp: Component, nominal: float = 1.0) -> tuple[fl
     return nominal, True
 
 
+def amount_stated(ctx: Context, comp: Component) -> bool:
+    """Whether the chemist gave this component an amount (absolute or in equivalents)."""
+    st = ctx.stoichiometry
+    row = st.row_for(comp.index) if st is not None else None
+    return row is not None and (row.mmol is not None or row.equiv is not None)
+
+
 def amounts_given(ctx: Context) -> bool:
     return ctx.stoichiometry is not None
 

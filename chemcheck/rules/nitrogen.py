@@ -16,6 +16,7 @@ from ._support import (
     LEWIS_BASIC_N,
     NUCLEOPHILIC_N,
     acids_brought_in,
+    amount_stated,
     amount_mmol,
     amounts_given,
     bases_present,
@@ -352,6 +353,12 @@ def acid_scavenger_short(ctx: Context):
         n_nuc, a1 = amount_mmol(ctx, nuc)
         n_nuc *= sites_per_molecule  # a diamine acylated twice: two reacting N per molecule
         n_e, a2 = amount_mmol(ctx, elec)
+        # an amount not given follows the balanced equation, not a flat 1 equiv: the drawn
+        # bis-amide takes two acid chlorides per diamine, phosgene two amines
+        if a2 and not a1 and sites_per_molecule > 1:
+            n_e = n_nuc
+        elif a2 and a1:
+            n_e = n_nuc / per
         bases = bases_present(ctx, {nuc.index, elec.index})
         brought = acids_brought_in(ctx, {nuc.index, elec.index} | _acyl_sources(ctx, nuc))
         protons = sum(m for _, _, m in brought)
@@ -373,7 +380,10 @@ def acid_scavenger_short(ctx: Context):
         holders = [b for b in bases if b.pka >= acid_pka + 2.0]
         capacity = sum(b.mmol for b in holders)
         needed = per * min(n_e, n_nuc / per) + protons
-        if holders and capacity >= 0.9 * needed:
+        # a strong enough base listed without an amount: the patent or plan does not say how
+        # much, and 1 equiv assumed against 2 HCl would be a guess dressed as a finding
+        unknown_holder = any(not amount_stated(ctx, b.component) for b in holders)
+        if holders and (capacity >= 0.9 * needed or unknown_holder):
             strongest = max(holders, key=lambda b: b.pka)
             if strongest.pka < taken.pka - 1.5 and not assumed:
                 yield r.finding(
@@ -435,7 +445,8 @@ def acid_scavenger_short(ctx: Context):
             f"Add at least {need + 0.1:.1f} equiv of a base at least as strong as {nuc.label}, such as "
             f"{_base_advice(taken.pka)}"
             # more of an amino acid brings more of its own protons: no help
-            + ("." if internal else f"; or use {1 + per:.0f} equiv of {nuc.label}.")
+            # (a diamine acylated on both N has no spare N to give: the base is the fix)
+            + ("." if internal or sites_per_molecule > 1 else f"; or use {2 * per:.0f} equiv of {nuc.label}.")
         )
         atoms = [(nuc.index, site.atom_index), *elec_atoms]
         yield r.finding(" ".join(parts), atoms=atoms, fix=fix, severity="warning" if assumed else "error")

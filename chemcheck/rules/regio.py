@@ -435,6 +435,11 @@ def ring_substitution_regiochemistry(ctx: Context):
         yield f
 
 
+def _has_lewis_acid(ctx: Context) -> bool:
+    rxn = ctx.reaction
+    return any(g.name == "lewis_acid" for c in rxn.reactants + rxn.agents for g in ctx.perception(c).groups)
+
+
 @rule(id="ring-too-deactivated", title="The ring is too deactivated for the substitution", severity="error", applies_to=("friedel_crafts", "ring_substitution"))
 def ring_too_deactivated(ctx: Context):
     """Friedel–Crafts reactions on rings that carry strongly deactivating groups.
@@ -480,9 +485,12 @@ def ring_too_deactivated(ctx: Context):
             fix="Run the Friedel–Crafts step before introducing the deactivating group, or choose another route "
             "(cross-coupling, nucleophilic aromatic substitution).",
         )
-    elif basic_ar_n:
+    elif basic_ar_n and not _has_lewis_acid(ctx):
+        # with a Lewis acid present, lewis-acid-quenched-by-amine gives both reasons (the
+        # acid taken up, the complexed ring deactivated) in one finding; here the promoter is
+        # a strong protic acid, which protonates the nitrogen to the same effect
         if sub.mol.GetAtomWithIdx(basic_ar_n[0].atom_index).GetTotalNumHs() > 0:
-            fix = "Acylate the nitrogen first (acetanilide), then run the Friedel–Crafts reaction with enough Lewis acid."
+            fix = "Acylate the nitrogen first (the acetanilide is acylated para to the NHAc), then hydrolyse the amide."
         else:
             fix = (
                 "This nitrogen carries no N–H and cannot be acylated: run the Friedel–Crafts step before the "
@@ -490,8 +498,8 @@ def ring_too_deactivated(ctx: Context):
                 "Vilsmeier–Haack reaction)."
             )
         yield r.finding(
-            f"The amino nitrogen of {sub.label} binds the Lewis acid; the N–Lewis acid complex is a strongly "
-            "deactivating group, so the ring does not undergo the Friedel–Crafts reaction.",
+            f"The amino nitrogen of {sub.label} is protonated by the acid that promotes the reaction; the "
+            "ammonium group is strongly deactivating, so the ring does not undergo the Friedel–Crafts reaction.",
             atoms=[(sub.index, basic_ar_n[0].atom_index)],
             fix=fix,
         )
