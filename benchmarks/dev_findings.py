@@ -68,10 +68,12 @@ def main() -> int:
                 per_rule[(f.rule, f.severity)] += 1
         u = rep.to_dict().get("understanding", {})
         classes[row["reaction_class"] or "-"][u.get("class", {}).get("id", "?")] += 1
+        v_mapped = None
         try:
             rep_m = chemcheck.check(mapped[row["id"]])
             compared += 1
             same += verdict(rep) == verdict(rep_m)
+            v_mapped = [[f.rule, f.severity, f.message] for f in rep_m.findings if f.severity != "info"]
         except Exception:
             pass
         if out:
@@ -82,6 +84,7 @@ def main() -> int:
                         "reaction": row["reaction_smiles"],
                         "class": u.get("class", {}).get("id"),
                         "findings": [[f.rule, f.severity, f.message, f.fix] for f in rep.findings],
+                        "with_source_maps": v_mapped,
                     }
                 )
                 + "\n"

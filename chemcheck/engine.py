@@ -4,6 +4,8 @@ from __future__ import annotations
 
 import os
 
+from rdkit import Chem
+
 from .errors import ChemcheckError
 from .findings import Finding
 from .reaction import Reaction, parse_reaction
@@ -84,7 +86,7 @@ def check(reaction: str | Reaction, amounts: dict[str, str] | None = None) -> Re
     for comp in rxn.components:
         comp.kind = ctx.perception(comp).kind if comp.role == "agent" else None
         if not comp.name:
-            comp.word = _word_for(ctx.perception(comp), comp.role)
+            comp.word = _word_for(ctx.perception(comp), comp.role, comp.mol)
     stoich = ctx.stoichiometry  # amount errors are raised here, before any rule runs
     findings: list[Finding] = []
     for comp in rxn.components:
@@ -209,7 +211,37 @@ _N_WORDS = {
 }
 
 
-def _word_for(perception, role: str) -> str:
+# the ring system or group that names an unnamed compound when no reacting group does, most
+# specific first ("indole 1", "phenol 2"): the IUPAC parent names of the ring systems
+_RING_WORDS = tuple(
+    (Chem.MolFromSmarts(sm), word)
+    for sm, word in (
+        ("c1ccc2[nX3]ccc2c1", "indole"),
+        ("c1ccc2ncccc2c1", "quinoline"),
+        ("c1ccc2cnccc2c1", "isoquinoline"),
+        ("c1ccc2[nX3]cnc2c1", "benzimidazole"),
+        ("c1ncc[nX3]1", "imidazole"),
+        ("c1cn[nX3]c1", "pyrazole"),
+        ("[#6]1:[#7]:[#7]:[#7]:[#6,#7]:1", "triazole"),
+        ("c1cscn1", "thiazole"),
+        ("c1cocn1", "oxazole"),
+        ("c1cc[nX3]c1", "pyrrole"),
+        ("c1cncnc1", "pyrimidine"),
+        ("c1cnccn1", "pyrazine"),
+        ("c1ccncc1", "pyridine"),
+        ("c1ccsc1", "thiophene"),
+        ("c1ccoc1", "furan"),
+        ("c[OX2H1]", "phenol"),
+        ("[CX4][OX2H1]", "alcohol"),
+        ("[SX2H1]", "thiol"),
+        ("[CX3]=[CX3]", "alkene"),
+        ("[CX2]#[CX2]", "alkyne"),
+        ("c1ccccc1", "arene"),
+    )
+)
+
+
+def _word_for(perception, role: str, mol=None) -> str:
     if role == "product":
         return "product"
     names = perception.group_names
@@ -219,6 +251,10 @@ def _word_for(perception, role: str) -> str:
     for site in perception.nitrogens:
         if site.kind in _N_WORDS:
             return _N_WORDS[site.kind]
+    if mol is not None and mol.GetNumAtoms():
+        for patt, word in _RING_WORDS:
+            if mol.HasSubstructMatch(patt):
+                return word
     return "compound"
 
 

@@ -1,4 +1,4 @@
-"""The long fuzzing run (make fuzz): at least 100,000 generated inputs within a time bound.
+"""The long fuzzing run (make fuzz): 200,000 generated inputs within a time bound.
 
 Reaction strings, SMILES fragments, names and amount strings, damaged saved reports, careless
 CSV rows, control characters and odd cell metadata, from a seeded generator; only chemcheck's own
@@ -129,7 +129,7 @@ def _one(kind: int, rnd: random.Random, state: dict) -> str:
     return text
 
 
-def main(n: int = 100_000, budget_s: float = 1800.0, keep_going: bool = False) -> int:
+def main(n: int = 200_000, budget_s: float = 3600.0, keep_going: bool = False) -> int:
     rnd = random.Random(20261201)
     start = time.time()
     counts = {"ok": 0, "refused": 0}
@@ -166,4 +166,4 @@ def main(n: int = 100_000, budget_s: float = 1800.0, keep_going: bool = False) -
 
 if __name__ == "__main__":
     args = [a for a in sys.argv[1:] if not a.startswith("--")]
-    sys.exit(main(int(args[0]) if args else 100_000, keep_going="--keep-going" in sys.argv))
+    sys.exit(main(int(args[0]) if args else 200_000, keep_going="--keep-going" in sys.argv))

@@ -115,3 +115,17 @@ def test_free_aniline_with_alcl3_is_one_error_with_both_reasons():
     errors = [f for f in report.findings if f.severity == "error"]
     assert [f.rule for f in errors] == ["lewis-acid-quenched-by-amine"]
     assert "taken up" in errors[0].message and "deactivating" in errors[0].message
+
+
+@pytest.mark.parametrize(
+    "reaction,label",
+    [
+        # IUPAC parent names of the ring systems (common practice)
+        ("Cc1ccc2[nH]ccc2c1.CC(=O)Cl>Cl[Al](Cl)Cl>", "indole 1"),
+        ("Cc1cccc(O)c1.CC(=O)Cl>>", "phenol 1"),
+        ("Cc1ccncc1C.CI>>", "pyridine 1"),
+    ],
+)
+def test_an_unnamed_compound_is_named_by_its_ring_system_or_group(reaction, label):
+    report = chemcheck.check(reaction)
+    assert report.reaction.components[0].label == label
