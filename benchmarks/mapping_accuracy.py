@@ -12,6 +12,7 @@ rows ``A*`` per reaction class.
 Routes measured inside chemcheck (run with the project's Python):
 
     python benchmarks/mapping_accuracy.py --route product   # map_reaction as shipped (cold cache)
+    python benchmarks/mapping_accuracy.py --route noquick   # as shipped, without the quick route first
     python benchmarks/mapping_accuracy.py --route indigo    # the mapper alone, no fallback
     python benchmarks/mapping_accuracy.py --route indigo1   # the same, one reading of the atoms
     python benchmarks/mapping_accuracy.py --route mcs       # the common-substructure route
@@ -203,6 +204,12 @@ def _route_map(route: str, rxn, timeout_s: float):
 
     if route == "product":
         return mapping.map_reaction(rxn, timeout_s=timeout_s)
+    if route == "noquick":  # as shipped, without the quick common-substructure route first
+        mapping.QUICK = False
+        try:
+            return mapping.map_reaction(rxn, timeout_s=timeout_s)
+        finally:
+            mapping.QUICK = True
     if route in ("indigo", "indigo1"):
         try:
             pairs = mapping._indigo_map(rxn, timeout_s, variants=1 if route == "indigo1" else mapping.VARIANTS)

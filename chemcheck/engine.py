@@ -125,7 +125,19 @@ def check(reaction: str | Reaction, amounts: dict[str, str] | None = None) -> Re
         )
     if rxn.products:
         u = ctx.understanding
-        if u.amap.note or u.amap.coverage < 0.5:
+        if u.amap.set_aside:
+            findings.append(
+                Finding(
+                    rule="atom-maps-set-aside",
+                    severity="info",
+                    title="The atom maps written were not used",
+                    message=f"The checks read a computed atom map: {u.amap.set_aside}.",
+                    atoms=(),
+                    fix="Check the atom map numbers in the reaction SMILES (automatic extraction sometimes maps a "
+                    "solvent's or base's atoms into the product), or remove them.",
+                )
+            )
+        elif u.amap.note or u.amap.coverage < 0.5:
             findings.append(
                 Finding(
                     rule="reaction-not-mapped",

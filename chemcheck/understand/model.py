@@ -110,7 +110,7 @@ class Understanding:
         return {
             "class": self.match.to_dict(),
             "also_fits": list(self.match.others),
-            "mapping": {"source": self.amap.source, "coverage": round(self.amap.coverage, 3), "note": self.amap.note},
+            "mapping": {"source": self.amap.source, "coverage": round(self.amap.coverage, 3), "note": self.amap.note or self.amap.set_aside},
             "centre": {
                 "formed": [_pair(c.atoms_before) for c in self.centre.formed() if c.atoms_before],
                 "broken": [_pair(c.atoms_before) for c in self.centre.broken() if c.atoms_before],
