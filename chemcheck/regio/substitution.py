@@ -174,6 +174,7 @@ def predict(mol: Chem.Mol, electrophiles: str | list[Electrophile], klass: str, 
     if not frags:
         return []
     cands = []
+    activated: set[int] = set()  # positions ortho or para to an activating group
     for ring in _benzene_rings(mol):
         subs = ring_substituents(mol, ring)
         occupied = {idx for idx, _, _, _ in subs}
@@ -197,6 +198,8 @@ def predict(mol: Chem.Mol, electrophiles: str | list[Electrophile], klass: str, 
                 op, _m, _deact = DIRECTORS[cls]
                 if d in (1, 3):
                     rel = "ortho" if d == 1 else "para"
+                    if cls in ("strong_op", "moderate_op"):
+                        activated.add(pos)
                     score += op
                     if cls == "meta":
                         reasons.append(f"{rel} to {name} (meta director)")
@@ -222,7 +225,13 @@ def predict(mol: Chem.Mol, electrophiles: str | list[Electrophile], klass: str, 
                 if smi:
                     reason = f"{note}; {where}" if note else where
                     cands.append(Candidate(smi, 0, "", reason, score + bonus, atoms=(pos,), route=route))
-    return rank_labels(cands, minor_gap=0.5, none_gap=2.5)
+    ranked = rank_labels(cands, minor_gap=0.5, none_gap=2.5)
+    # a position ortho or para to an activating group is never ruled out: where directors
+    # compete (fused heteroarenes, several donors) the scores rank, they do not exclude
+    for c in ranked:
+        if c.label == "none" and c.atoms and c.atoms[0] in activated:
+            c.label = "minor"
+    return ranked
 
 
 # --------------------------------------------------------------------------- carbocations

@@ -132,6 +132,8 @@ def lewis_acid_quenched_by_amine(ctx: Context):
             continue
         if salt_info(ctx, comp)[0]:
             continue
+        if u is not None and u.role(comp) in ("ligand", "workup", "solvent"):
+            continue  # TMEDA on the organolithium of another step, an aqueous quench
         sites = [
             s for s in ctx.sites(comp)
             if s.kind in LEWIS_BASIC_N and s.pka is not None and s.pka >= -1.0
@@ -554,6 +556,22 @@ def amine_salt_not_freed(ctx: Context):
         if have + 0.05 >= need:
             continue
         assumed = a1 or any(b.assumed for b in bases)
+        atoms = [(comp.index, s.atom_index) for s in sites]
+        if len(Chem.GetMolFrags(comp.mol)) == 1 and not any(a.GetFormalCharge() for a in comp.mol.GetAtoms()):
+            # the acid is on the amine's own molecule (an aminosulfonic acid): an inner salt
+            # whose share of free amine depends on the pH; patents often leave the pH
+            # adjustment out of the reagent list
+            yield r.finding(
+                f"{comp.label} carries an acid group on the same molecule as its amine (pKa {pka:.1f}): in solution "
+                "it is largely an inner salt (zwitterion), its nitrogen protonated, and the free amine it needs to "
+                f"react is formed only as a base takes that proton; {have:.2g} equiv of a strong enough base present."
+                + (" (Amounts not given for every component: 1 equiv assumed.)" if assumed else ""),
+                atoms=atoms,
+                fix=f"Dissolve {comp.label} as its sodium salt (1 equiv of NaHCO3 or Na2CO3 per acid group) and keep "
+                "the pH near 7–8 while the electrophile is added.",
+                severity="warning",
+            )
+            continue
         salt = _salt_name(ctx, comp)
         msg = (
             f"{comp.label} is the {salt} of an amine (pKa {pka:.1f}): its nitrogen carries a proton and cannot react "
@@ -567,7 +585,6 @@ def amine_salt_not_freed(ctx: Context):
             msg += f" {w.label} (pKa {w.display_pka:.1f}) is too weak to free it."
         if assumed:
             msg += " (Amounts not given for every component: 1 equiv assumed.)"
-        atoms = [(comp.index, s.atom_index) for s in sites]
         yield r.finding(
             msg,
             atoms=atoms,

@@ -13,7 +13,7 @@ from ..regio import Candidate, Prediction, attach, canonical, elimination, rank_
 from ..basicity import _protonate
 from . import Context, rule
 from ..perceive import GroupMatch
-from ._support import ACYLATING, changed_nitrogens, family_is, salt_info
+from ._support import ACYLATING, changed_nitrogens, family_is, salt_info, understood
 
 _SMALL_BASES = {"alkoxide", "hydroxide"}
 
@@ -740,6 +740,14 @@ def condensation_product_mismatch(ctx: Context):
     drawn, _ = _drawn_match(ctx, cands)
     changed = [nb for nb in changed_nitrogens(ctx) if nb.reactant == amine_comp.index]
     atoms = [(amine_comp.index, site.atom_index)]
+    u = understood(ctx)
+    if u is not None and u.amap.coverage >= 0.9 and drawn is None:
+        # the atom map says which atoms bond: when no new bond reaches this nitrogen, the
+        # product comes from another centre (a thiourea's S and N in a Hantzsch thiazole
+        # synthesis beside a tertiary amine that only rides along)
+        n_atom = atoms[0]
+        if not any(n_atom in ch.atoms_before for ch in u.centre.formed() if ch.atoms_before):
+            return
     if site.kind == "tertiary_amine" and changed:
         yield r.finding(
             f"{amine_comp.label} is a tertiary amine: it has no N–H and does not condense with {carbonyl.label}.",

@@ -65,6 +65,7 @@ def _kb() -> dict:
                     "queries": [q for q in queries if q is not None],
                     "elements": set(e.get("elements", ())),
                     "needs_metal": bool(e.get("needs_metal", False)),
+                    "needs_elements": set(e.get("needs_elements", ())),
                     "families": set(e.get("families", ())),
                 }
             )
@@ -72,11 +73,15 @@ def _kb() -> dict:
     return out
 
 
-def _in_kb(section: str, comp: Component, counts: Counter[str], metal_present: bool, family: str) -> bool:
+def _in_kb(
+    section: str, comp: Component, counts: Counter[str], metal_present: bool, family: str, elements: frozenset = frozenset()
+) -> bool:
     for e in _kb().get(section, ()):
         if e["families"] and family not in e["families"]:
             continue
         if e["needs_metal"] and not metal_present:
+            continue
+        if e["needs_elements"] and not e["needs_elements"] & elements:
             continue
         if any(counts == f for f in e["formulas"]):
             return True
@@ -95,6 +100,10 @@ def resolve_roles(rxn: Reaction, family: str, contributing: frozenset[int], perc
     """
     metal_present = any(
         a.GetSymbol() in _METALS for c in rxn.components if c.role != "product" for a in c.mol.GetAtoms()
+    )
+    # elements of the other components (an organolithium beside TMEDA)
+    elements = frozenset(
+        a.GetSymbol() for c in rxn.components if c.role != "product" for a in c.mol.GetAtoms()
     )
     roles: dict[int, str] = {}
     solvents: list[int] = []
@@ -126,7 +135,7 @@ def resolve_roles(rxn: Reaction, family: str, contributing: frozenset[int], perc
             role = "catalyst"  # CuI in an N-arylation, PdCl2 in a coupling
         elif kind == "lewis_acid":
             role = "additive"  # TiCl4 removing water, CeCl3 beside NaBH4, ZnCl2 in a reductive amination
-        elif _in_kb("ligand", comp, counts, metal_present, family):
+        elif _in_kb("ligand", comp, counts, metal_present, family, elements):
             role = "ligand"
         elif _in_kb("additive", comp, counts, metal_present, family):
             role = "additive"
