@@ -16,7 +16,8 @@ from ..report import MIME_TYPE
 
 __all__ = ["CheckPad", "pad"]
 
-DEBOUNCE_S = 0.35
+# typing pauses shorter than this are one edit; the check itself takes tens of milliseconds
+DEBOUNCE_S = 0.06
 
 
 class CheckPad:

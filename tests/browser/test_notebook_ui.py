@@ -38,6 +38,55 @@ def test_pad_renders_and_follows_typing(lab, page):
     assert page.page_errors == []
 
 
+# an amide coupling of our own scenario, six components as a chemist writes them
+SIX = "OC(=O)c1ccc(Cl)cc1.NCc1ccc(F)cc1>CCN(C(C)C)C(C)C.CN(C)C(On1nnc2cccnc21)=[N+](C)C.F[P-](F)(F)(F)(F)F.{solvent}>O=C(NCc1ccc(F)cc1)c1ccc(Cl)cc1"
+
+
+def test_pad_keystroke_to_render_time_is_measured(lab, page):
+    # a benchmark figure, not a timed assertion: each edit must render; the times are written
+    # to tests/browser/artifacts/pad_timing.json for docs/performance.md
+    import statistics
+    import time
+    from pathlib import Path
+
+    from chemcheck.display.pad import DEBOUNCE_S
+
+    first = SIX.format(solvent="CN(C)C=O")
+    lab.write_notebook(
+        "pad-timing.ipynb",
+        [code_cell(f"import chemcheck\np = chemcheck.pad({first!r})\np", cell_id="padt")],
+    )
+    open_notebook(page, lab, "pad-timing.ipynb")
+    run_all_cells(page)
+    page.locator(".cc-pad .cc-report").first.wait_for(timeout=60_000)
+    box = page.locator(".cc-pad-reaction input")
+    times = []
+    solvents = ["ClCCl", "CN(C)C=O", "C1CCOC1", "CC#N"]
+    for k in range(16):
+        solvent = solvents[(k + 1) % len(solvents)]
+        text = SIX.format(solvent=solvent)
+        t0 = time.perf_counter()
+        box.fill(text)
+        page.wait_for_function(
+            "s => { const t = document.querySelector('.cc-pad .cc-title'); return t && t.textContent.includes(s); }",
+            arg=solvent,
+            timeout=30_000,
+        )
+        times.append((time.perf_counter() - t0) * 1000)
+    times.sort()
+    out = {
+        "edits": len(times),
+        "median_ms": round(statistics.median(times), 1),
+        "p95_ms": round(times[int(0.95 * (len(times) - 1))], 1),
+        "debounce_ms": round(1000 * DEBOUNCE_S),
+    }
+    artifacts = Path(__file__).resolve().parent / "artifacts"
+    artifacts.mkdir(exist_ok=True)
+    (artifacts / "pad_timing.json").write_text(json.dumps(out, indent=1))
+    print("pad keystroke to render:", out)
+    assert len(times) == 16 and page.page_errors == []
+
+
 def test_3d_view_draws_pixels(lab, page):
     lab.write_notebook("three.ipynb", [code_cell("import chemcheck\nchemcheck.view3d('Nc1ccc(C(C)=O)cc1')")])
     open_notebook(page, lab, "three.ipynb")
