@@ -228,6 +228,12 @@ _N_WORDS = {
 _RING_WORDS = tuple(
     (Chem.MolFromSmarts(sm), word)
     for sm, word in (
+        ("[C-]#N", "cyanide"),
+        ("[Li+,Na+,K+,Rb+,Cs+,Mg+2,Ca+2,Zn+2,Ba+2]", "metal ion"),
+        ("[N-]=[N+]=[N-]", "azide"),
+        ("[O-][N]=O", "nitrite"),
+        ("[OH-]", "hydroxide"),
+        ("[O-][CX4]", "alkoxide"),
         ("c1ccc2[nX3]ccc2c1", "indole"),
         ("c1ccc2ncccc2c1", "quinoline"),
         ("c1ccc2cnccc2c1", "isoquinoline"),
