@@ -59,12 +59,10 @@ MAX_DRAWN_ATOMS = 250
 
 # Total time for the rules of one check; the rules not started by then are skipped and named.
 # Counted in CPU time of this process from the first rule, so that neither a loaded machine nor
-# the one-time loading of a fresh kernel (tables, the property database, the mapper) costs the
-# chemist a rule; the caps above are what keep large inputs in bounds. The first check of a
-# process also fills the caches the rules read, and gets COLD_FACTOR times the deadline.
+# the one-time loading of a fresh kernel before the rules (the property database, the mapper)
+# costs the chemist a rule; the caps above are what keep large inputs in bounds. (The rules of
+# a first check with amounts in a fresh process take about 0.1 s of CPU.)
 DEADLINE_S = 1.5
-COLD_FACTOR = 4.0
-_warm = False
 
 
 def candidate_cap(heavy_atoms: int) -> int:
@@ -82,10 +80,6 @@ class Budget:
 
     def start_rules(self) -> None:
         """Start the deadline's clock (CPU time): called when the first rule starts."""
-        global _warm
-        if not _warm:
-            self.deadline_s *= COLD_FACTOR
-            _warm = True
         self.start = time.process_time()
 
     def expired(self) -> bool:
