@@ -245,6 +245,8 @@ def _compute(rxn: Reaction, timeout_s: float, quick: bool = True) -> AtomMap:
 QUICK = True
 #: bonds formed, broken or changed in order that a plain answer of the quick route may have
 QUICK_MAX_CHANGES = 4
+#: ... and at most this many when the centre reads as no catalogued class
+QUICK_ANY_CLASS_CHANGES = 2
 
 
 def _quick(rxn: Reaction) -> AtomMap | None:
@@ -269,7 +271,7 @@ def _quick(rxn: Reaction) -> AtomMap | None:
         centre = reaction_centre(rxn, amap)
         if not centre.changes or len(centre.changes) > QUICK_MAX_CHANGES:
             return None
-        if classify(rxn, centre).cls.id == OTHER.id:
+        if len(centre.changes) > QUICK_ANY_CLASS_CHANGES and classify(rxn, centre).cls.id == OTHER.id:
             return None
     except Exception:  # the quick route never decides on failure: the mapper runs
         return None
