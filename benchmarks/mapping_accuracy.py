@@ -223,7 +223,7 @@ def _route_map(route: str, rxn, timeout_s: float):
 
 def score(rows, route: str, timeout_s: float = 2.0, show_misses: int = 0) -> dict:
     from chemcheck.errors import ChemcheckError
-    from chemcheck.reaction import parse_reaction
+    from chemcheck.reading.reaction import parse_reaction
     from chemcheck.understand import map_reaction
     from chemcheck.understand.mapping import clear_cache
 

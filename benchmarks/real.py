@@ -34,7 +34,7 @@ DATA = Path(os.environ.get("CHEMCHECK_REACTIONS", "/work/shared/data/reactions")
 
 # stage of each chemcheck source file (first matching prefix, paths relative to the package)
 STAGES = (
-    ("reaction.py", "parse"), ("molecule.py", "parse"), ("names.py", "parse"), ("_smiles.py", "parse"),
+    ("reading/", "parse"),
     ("_rdlog.py", "parse"), ("data/", "parse"),
     ("understand/", "mapping"), ("changes.py", "mapping"),
     ("perceive/", "perception"),

@@ -61,7 +61,7 @@ def main(n: int = 1200) -> dict:
     RDLogger.DisableLog("rdApp.*")
     import chemcheck
     from chemcheck.display.bundle import mimebundle
-    from chemcheck.names import lookup_name
+    from chemcheck.reading.names import lookup_name
 
     reactions = corpus.generate(n)
 

@@ -12,7 +12,7 @@ from .engine import check
 from .errors import AmountError, ChemcheckError, LimitError, ParseError
 from .findings import Finding
 from .properties import properties
-from .reaction import Component, Reaction, parse_reaction
+from .reading.reaction import Component, Reaction, parse_reaction
 from .report import MIME_TYPE, Report
 from .scale import scale
 

@@ -15,7 +15,7 @@ def _pka(sub) -> None:
 
 def _run_pka(args) -> int:
     from .basicity import basic_sites, first_protonation
-    from .reaction import parse_reaction
+    from .reading.reaction import parse_reaction
 
     rxn = parse_reaction(args.smiles)
     rows = []

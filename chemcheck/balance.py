@@ -22,7 +22,7 @@ from rdkit import Chem
 from rdkit.Chem import rdMolDescriptors
 
 from ._memo import Memo
-from .reaction import Component, Reaction
+from .reading.reaction import Component, Reaction
 
 __all__ = ["Balance", "balance", "element_counts"]
 

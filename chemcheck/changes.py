@@ -18,7 +18,7 @@ from rdkit.Chem import rdFMCS
 
 from . import _rdlog
 from .perceive import canonical_key
-from .reaction import Reaction
+from .reading.reaction import Reaction
 
 __all__ = ["NewBond", "new_bonds_at_nitrogen", "new_bonds_from_map", "atom_correspondence"]
 

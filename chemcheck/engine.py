@@ -8,7 +8,7 @@ from rdkit import Chem
 
 from .errors import ChemcheckError
 from .findings import Finding
-from .reaction import Reaction, parse_reaction
+from .reading.reaction import Reaction, parse_reaction
 from .report import Report
 from ._budget import MAPPING_CAP_MARK, Budget, budget_of
 from .rules import Context, registry
@@ -67,7 +67,7 @@ def check(reaction: str | Reaction, amounts: dict[str, str] | None = None) -> Re
     """Check a reaction for known failure modes.
 
     ``reaction`` is reaction SMILES (names allowed in place of SMILES) or a parsed
-    :class:`~chemcheck.reaction.Reaction`; ``amounts`` maps a component's text as written to
+    :class:`~chemcheck.reading.reaction.Reaction`; ``amounts`` maps a component's text as written to
     an amount string. Raises :class:`~chemcheck.errors.ChemcheckError` subclasses on bad input.
     """
     from .amounts import validate_amounts

@@ -446,7 +446,7 @@ def properties(smiles_or_name: str) -> Properties:
     from rdkit.Chem import Descriptors
 
     from . import _rdlog
-    from .names import lookup_name
+    from .reading.names import lookup_name
 
     with _rdlog.captured():
         mol = Chem.MolFromSmiles(text)

@@ -9,7 +9,7 @@ from typing import Any
 
 from ._version import __version__
 from .findings import SEVERITIES, Finding
-from .reaction import Component, Reaction
+from .reading.reaction import Component, Reaction
 
 __all__ = ["Report", "MIME_TYPE", "SCHEMA_VERSION", "schema"]
 

@@ -23,7 +23,7 @@ from dataclasses import dataclass, field
 
 from .amounts import Amount, parse_amount, validate_amounts
 from .errors import AmountError
-from .reaction import Component, Reaction
+from .reading.reaction import Component, Reaction
 from .units import fmt_mass, fmt_moles, fmt_volume
 
 __all__ = ["Row", "Stoichiometry", "compute", "COLUMNS"]

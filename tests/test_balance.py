@@ -10,7 +10,7 @@ import pytest
 
 import chemcheck
 from chemcheck.balance import balance
-from chemcheck.reaction import parse_reaction
+from chemcheck.reading.reaction import parse_reaction
 
 
 def missing(text):

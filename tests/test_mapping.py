@@ -13,7 +13,7 @@ from pathlib import Path
 
 import pytest
 
-from chemcheck.reaction import parse_reaction
+from chemcheck.reading.reaction import parse_reaction
 from chemcheck.understand import AtomMap, BondChange, Centre, map_reaction, reaction_centre
 from chemcheck.understand import mapping as mapping_mod
 

@@ -197,7 +197,7 @@ def test_a_base_among_the_reactants_is_not_mapped_onto_the_product():
     # the N-CH2-CH3 of triethylamine fits the N-CH2-CH2 of the sulfonamide too; the amine that
     # carries the whole of that part holds those product atoms
     from chemcheck.changes import new_bonds_at_nitrogen
-    from chemcheck.reaction import parse_reaction
+    from chemcheck.reading.reaction import parse_reaction
 
     rxn = parse_reaction("CCN(CC)CC.Cc1ccc(S(=O)(=O)Cl)cc1.NCCc1ccccc1>>Cc1ccc(cc1)S(=O)(=O)NCCc1ccccc1")
     [nb] = new_bonds_at_nitrogen(rxn)
@@ -208,7 +208,7 @@ def test_a_reactant_that_loses_a_conflict_is_placed_again_on_free_atoms():
     # acetic anhydride's acetyl fits the acetamide of the substrate as well as the new ketone;
     # the acetanilide holds its own acetyl, so the anhydride maps onto the ketone
     from chemcheck.changes import atom_correspondence
-    from chemcheck.reaction import parse_reaction
+    from chemcheck.reading.reaction import parse_reaction
 
     rxn = parse_reaction("CC(=O)Nc1ccccc1.CC(=O)OC(C)=O>>CC(=O)Nc1ccc(C(C)=O)cc1")
     corr = atom_correspondence(rxn)
@@ -232,7 +232,7 @@ def test_a_reactant_that_loses_a_conflict_is_placed_again_on_free_atoms():
 def test_amide_coupling_agents_are_perceived_as_such(name):
     # structures of the common coupling agents (Montalbetti & Falque, Tetrahedron 2005, 61,
     # 10827): an agent of this kind, not a base, whatever nitrogens it carries
-    from chemcheck.reaction import parse_reaction
+    from chemcheck.reading.reaction import parse_reaction
 
     rxn = parse_reaction(f"OC(=O)c1ccccc1.NCc1ccccc1>{name}>O=C(NCc1ccccc1)c1ccccc1")
     agent = rxn.agents[0]

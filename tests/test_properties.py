@@ -386,7 +386,7 @@ def test_two_keys_for_one_component_name_both():
 
 
 def test_database_names_only_when_exact():
-    from chemcheck.names import lookup_name
+    from chemcheck.reading.names import lookup_name
 
     assert lookup_name("dna") is None  # the database lists 'dna' for a naphthoic acid
     hit = lookup_name("benzylamine")

@@ -15,7 +15,7 @@ from pathlib import Path
 import pytest
 
 import chemcheck
-from chemcheck.reaction import parse_reaction
+from chemcheck.reading.reaction import parse_reaction
 from chemcheck.rules import Context
 from chemcheck.understand.classes import catalog
 

@@ -33,7 +33,7 @@ from . import tautomers
 from .._memo import Memo
 from .._warnings import ChemcheckWarning
 from ..errors import ChemcheckError, ParseError
-from ..molecule import read_smiles
+from ..reading.molecule import read_smiles
 from ..perceive import canonical_key, nitrogen_sites
 from . import constants as K
 from . import hydration, model

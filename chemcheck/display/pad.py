@@ -96,7 +96,7 @@ class CheckPad:
     def refresh(self) -> None:
         """Check the reaction as it stands now and redraw the report."""
         from ..engine import check
-        from ..reaction import parse_reaction
+        from ..reading.reaction import parse_reaction
 
         self._pending = None
         text = self.reaction.value.strip()

@@ -21,7 +21,7 @@ from functools import cached_property, lru_cache
 from ..errors import ChemcheckError
 from ..findings import Finding, Severity
 from ..perceive import Perception, perceive
-from ..reaction import Component, Reaction
+from ..reading.reaction import Component, Reaction
 
 __all__ = ["Rule", "Context", "rule", "registry", "DOC_SECTIONS"]
 

@@ -6,7 +6,7 @@ from __future__ import annotations
 from dataclasses import dataclass
 
 from ..acid_base import Acceptor
-from ..reaction import Component
+from ..reading.reaction import Component
 from . import Context
 
 # nitrogen kinds whose lone pair is free to attack an electrophile (with an N-H to lose,

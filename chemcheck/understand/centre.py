@@ -19,7 +19,7 @@ from dataclasses import dataclass
 
 from rdkit import Chem
 
-from ..reaction import Reaction
+from ..reading.reaction import Reaction
 from .mapping import Atom, AtomMap
 
 __all__ = ["BondChange", "Centre", "reaction_centre"]

@@ -16,7 +16,7 @@ from importlib import resources
 from rdkit import Chem
 
 from .. import _rdlog
-from ..reaction import Reaction
+from ..reading.reaction import Reaction
 from .centre import BondChange, Centre
 
 __all__ = ["ReactionClass", "ClassMatch", "catalog", "classify", "OTHER"]

@@ -31,7 +31,7 @@ from rdkit import Chem
 
 from .. import _rdlog
 from .._memo import Memo
-from ..reaction import Reaction
+from ..reading.reaction import Reaction
 
 __all__ = ["AtomMap", "map_reaction", "MAPPER"]
 

@@ -9,7 +9,7 @@ from __future__ import annotations
 
 from dataclasses import dataclass
 
-from ..reaction import Component, Reaction
+from ..reading.reaction import Component, Reaction
 from .centre import Centre, reaction_centre
 from .classes import OTHER, ClassMatch, classify
 from .mapping import AtomMap, map_reaction

@@ -18,7 +18,7 @@ from importlib import resources
 from rdkit import Chem
 
 from .. import _rdlog
-from ..reaction import Component, Reaction
+from ..reading.reaction import Component, Reaction
 
 __all__ = ["ROLES", "resolve_roles", "formula_counts"]
 

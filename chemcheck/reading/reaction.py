@@ -24,9 +24,9 @@ from functools import lru_cache
 from rdkit import Chem
 from rdkit.Chem import rdMolDescriptors
 
-from . import _rdlog
-from ._memo import Memo
-from .errors import LimitError, ParseError
+from .. import _rdlog
+from .._memo import Memo
+from ..errors import LimitError, ParseError
 from .molecule import read_smiles
 from .names import kind_for_smiles, lookup_name, name_for_smiles
 
@@ -455,7 +455,7 @@ def _block_formula(fragments: list[Fragment], units: list[list[int]]) -> str:
 @lru_cache(maxsize=1)
 def _known_salt_formulas() -> frozenset[str]:
     """Formulas of the salts in the name table (NaH, NH4Cl, LiAlH4, Cs2CO3, ...)."""
-    from .data.reagents import REAGENTS
+    from ..data.reagents import REAGENTS
 
     out = set()
     with _rdlog.captured():
@@ -490,13 +490,13 @@ def _build_component(index: int, frags: list[Fragment], text_full: str) -> Compo
         template, fields, canon = hit
         mol = Chem.Mol(template)
         if canon is not None:
-            from .perceive import remember_canonical
+            from ..perceive import remember_canonical
 
             remember_canonical(mol, canon, rings=fields["sanitization"] == "full")
         return Component(index=index, role=ROLES[frags[0].side], mol=mol, span=(start, end), **fields)
     comp = _build_component_uncached(index, frags, text_full)
     if comp.mol.GetNumAtoms() <= _CACHE_ATOMS:
-        from .perceive import canonical_key
+        from ..perceive import canonical_key
 
         template = Chem.Mol(comp.mol)
         fields = dict(
@@ -531,7 +531,7 @@ def _build_component_uncached(index: int, frags: list[Fragment], text_full: str)
         if any(_MAP_NUMBER.search(f.smiles) for f in frags):
             smiles = _canonical(mol)
         else:
-            from .perceive import canonical_key
+            from ..perceive import canonical_key
 
             key = canonical_key(mol)  # remembered on the molecule for perception
             smiles = key[0] if key is not None else _canonical(mol)

@@ -10,7 +10,7 @@ import unicodedata
 from dataclasses import dataclass
 from functools import lru_cache
 
-from .data.reagents import REAGENTS
+from ..data.reagents import REAGENTS
 
 __all__ = ["NameHit", "lookup_name", "name_for_smiles", "kind_for_smiles", "name_for_inchikey", "kind_for_inchikey", "normalise"]
 
@@ -46,7 +46,7 @@ def _table() -> dict[str, NameHit]:
 def _by_inchikey() -> dict[str, tuple[str, str]]:
     from rdkit import Chem
 
-    from . import _rdlog
+    from .. import _rdlog
 
     out: dict[str, tuple[str, str]] = {}
     with _rdlog.captured():
@@ -64,7 +64,7 @@ def _by_inchikey() -> dict[str, tuple[str, str]]:
 def _by_smiles() -> dict[str, tuple[str, str]]:
     from rdkit import Chem
 
-    from . import _rdlog
+    from .. import _rdlog
 
     out: dict[str, tuple[str, str]] = {}
     with _rdlog.captured():

@@ -12,8 +12,9 @@ from dataclasses import dataclass
 
 from rdkit import Chem
 
-from . import _rdlog, _smiles
-from .errors import LimitError, ParseError
+from .. import _rdlog
+from . import _smiles
+from ..errors import LimitError, ParseError
 
 __all__ = ["ReadMol", "read_smiles", "METALS"]
 
@@ -82,7 +83,7 @@ def _atom_offset(smiles: str, atom_index: int) -> int | None:
 def _check_rings(mol: Chem.Mol, smiles: str, component: int | None) -> None:
     """Refuse, before ring perception, a molecule with more rings than the work budget allows
     (perception on densely fused graphs takes seconds and hundreds of MB)."""
-    from ._budget import MAX_RINGS
+    from .._budget import MAX_RINGS
 
     rings = mol.GetNumBonds() - mol.GetNumAtoms() + len(Chem.GetMolFrags(mol))
     if rings > MAX_RINGS:
