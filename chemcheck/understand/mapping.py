@@ -266,6 +266,14 @@ def _quick(rxn: Reaction) -> AtomMap | None:
         if not pairs:
             return None
         amap = _result(rxn, "mcs", pairs, None)
+        if 0.8 <= amap.coverage < 0.999:
+            # a few product atoms left open (an O or N whose bonds change): complete them from
+            # their neighbours' origins as for the mapper's answer
+            pairs = _complete(rxn, list(pairs))
+            amap = _result(rxn, "mcs", pairs, None)
+            if amap.coverage < 0.999:
+                pairs = _fill_open(rxn, pairs, [c for c in rxn.reactants if c.mol.GetNumAtoms()])
+                amap = _result(rxn, "mcs", pairs, None)
         if amap.coverage < 0.999:
             return None
         centre = reaction_centre(rxn, amap)
