@@ -192,3 +192,17 @@ def test_hofmann_reasons_do_not_contradict_themselves():
     assert by["C=C(C)CC"].label == "major" and "most accessible" in by["C=C(C)CC"].reason
     assert "most accessible" not in by["CC=C(C)C"].reason
     assert "more hindered" in by["CC=C(C)C"].reason
+
+
+def test_a_fused_triazole_nitrogen_is_not_read_as_an_amino_donor():
+    # the N1 lone pair of a benzotriazole belongs to the pi-deficient triazole sextet (Joule &
+    # Mills, Heterocyclic Chemistry, 5th ed., ch. 25; from memory), unlike the N of an indole
+    from rdkit import Chem
+
+    from chemcheck.regio.substitution import _benzene_rings, ring_substituents
+
+    for smiles, expected in (("Cn1nnc2ccccc21", "fused"), ("Cn1ccc2ccccc21", "strong_op")):
+        mol = Chem.MolFromSmiles(smiles)
+        (ring,) = _benzene_rings(mol)
+        classes = {cls for _, cls, _, x in ring_substituents(mol, ring) if mol.GetAtomWithIdx(x).GetSymbol() == "N"}
+        assert classes == {expected}, (smiles, classes)

@@ -121,7 +121,16 @@ def _pi_donor_ring_atom(x: Chem.Atom) -> bool:
     furan O, thiophene S), not a pyridine-type N."""
     if x.GetAtomicNum() in (8, 16):
         return True
-    return x.GetAtomicNum() == 7 and x.GetFormalCharge() == 0 and (x.GetDegree() == 3 or x.GetTotalNumHs() > 0)
+    if not (x.GetAtomicNum() == 7 and x.GetFormalCharge() == 0 and (x.GetDegree() == 3 or x.GetTotalNumHs() > 0)):
+        return False
+    # the N of a triazole or tetrazole ring gives its lone pair to that electron-poor ring's
+    # sextet, not to the benzene (Joule & Mills, Heterocyclic Chemistry, 5th ed., ch. 25:
+    # azoles with three or four N are pi-deficient; from memory)
+    mol = x.GetOwningMol()
+    for ring in mol.GetRingInfo().AtomRings():
+        if x.GetIdx() in ring and len(ring) == 5 and sum(mol.GetAtomWithIdx(i).GetAtomicNum() == 7 for i in ring) >= 3:
+            return False
+    return True
 
 
 # Alpha positions of a benzo-fused aromatic ring (C1 of naphthalene, C5 and C8 of quinoline and
