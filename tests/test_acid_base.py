@@ -58,7 +58,7 @@ def test_separation_window():
 def test_report_carries_basicity_and_workup():
     import chemcheck
 
-    d = chemcheck.check("CCCCN.CC(=O)Cl>Et3N>CCCCNC(C)=O").to_dict()
+    d = chemcheck.check("CCCCCN.CC(=O)Cl>Et3N>CCCCCNC(C)=O").to_dict()
     kinds = {(b["component"], b["kind"]) for b in d["basicity"]}
     assert (0, "primary_amine") in kinds and (3, "amide") in kinds
     # components are named by compound number and what they are, not by SMILES

@@ -296,7 +296,7 @@ def test_table_headers_carry_units_that_fit_the_scale():
     # benzylamine 107 g / 107.15 g/mol (RDKit average mass) = 0.9986 mol; DCM 1.25 L x 1.327 g/mL
     # (the curated handbook density at 25 °C) / 84.93 g/mol = 19.5 mol, never "1.95e+04 mmol"
     assert amount[0] == "0.999" and amount[3] == "19.5"
-    assert [c.label for c in st.compounds][:2] == ["amine 1", "acetyl chloride (2)"]
+    assert [c.label for c in st.compounds][:2] == ["benzylamine (1)", "acetyl chloride (2)"]
     assert report.table.columns.tolist()[:3] == ["role", "formula", "mw"]  # the DataFrame keeps its columns
     assert [fmt_number(x) for x in (1.25, 10.99, 310.4, 0.0451)] == ["1.25", "11.0", "310", "0.0451"]
 

@@ -389,9 +389,9 @@ def test_database_names_only_when_exact():
     from chemcheck.reading.names import lookup_name
 
     assert lookup_name("dna") is None  # the database lists 'dna' for a naphthoic acid
-    hit = lookup_name("benzylamine")
+    hit = lookup_name("cyclopentylamine")
     assert hit is not None and hit.source == "chemicals database" and Chem.MolToSmiles(
-        Chem.MolFromSmiles(hit.smiles)) == "NCc1ccccc1"
+        Chem.MolFromSmiles(hit.smiles)) == "NC1CCCC1"
     with pytest.raises(chemcheck.ParseError):
         chemcheck.check("dna.CC(=O)Cl>>")
 

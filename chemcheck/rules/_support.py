@@ -118,6 +118,21 @@ def salt_info(ctx: Context, comp: Component) -> tuple[bool, list]:
     return False, []
 
 
+def acid_written_beside(ctx: Context, comp: Component) -> Component | None:
+    """A strong acid (HCl, HBr, TFA, a sulfonic acid) written as its own reactant right next to
+    this amine reactant: its salt, as notebooks and patents write it (``Cl.NCc1ccccc1``) when
+    the fragments are not grouped."""
+    if comp.role != "reactant":
+        return None
+    for other in ctx.reaction.reactants:
+        if abs(other.index - comp.index) != 1 or other.mol.GetNumHeavyAtoms() > 12:
+            continue
+        p = ctx.perception(other)
+        if p.has("hydrogen_halide", "perfluoro_acid", "sulfonic_acid") and not p.basic_nitrogens:
+            return other
+    return None
+
+
 def nucleophile_sites(ctx: Context, comp: Component, kinds=NUCLEOPHILIC_N):
     sites = [s for s in ctx.sites(comp) if s.pka is not None]
     out = []

@@ -15,6 +15,7 @@ from ._support import (
     ALKYLATING,
     LEWIS_BASIC_N,
     NUCLEOPHILIC_N,
+    acid_written_beside,
     acids_brought_in,
     amount_stated,
     amount_mmol,
@@ -350,7 +351,7 @@ def acid_scavenger_short(ctx: Context):
     """
     r = acid_scavenger_short.rule
     for elec, elec_atoms, nuc, site, acid_name, acid_pka, per, sites_per_molecule in _acid_events(ctx):
-        if salt_info(ctx, nuc)[0]:
+        if salt_info(ctx, nuc)[0] or acid_written_beside(ctx, nuc) is not None:
             continue  # amine-salt-not-freed covers a salt used as the nucleophile
         n_nuc, a1 = amount_mmol(ctx, nuc)
         n_nuc *= sites_per_molecule  # a diamine acylated twice: two reacting N per molecule
@@ -519,6 +520,14 @@ def amine_salt_not_freed(ctx: Context):
     u = understood(ctx)
     for comp in rxn.reactants + (rxn.agents if u is not None else []):
         is_salt, sites = salt_info(ctx, comp)
+        beside = None
+        if (
+            not is_salt and u is not None and u.family != "reductive_amination"
+            and u.nucleophile is not None and u.nucleophile[0] == comp.index
+        ):
+            beside = acid_written_beside(ctx, comp)
+            if beside is not None:
+                is_salt, sites = True, [s for s in nucleophile_sites(ctx, comp) if s.atom_index == u.nucleophile[1]]
         if not is_salt or not sites:
             continue
         if u is not None:
@@ -552,12 +561,15 @@ def amine_salt_not_freed(ctx: Context):
         strong = [b for b in bases if b.pka >= pka - 1.0]
         weak = [b for b in bases if b.pka < pka - 1.0]
         have = sum(b.mmol for b in strong) / n_salt if n_salt else 0.0
-        need = acid_protons_in_salt(comp) + acid_need  # a dihydrochloride brings two protons
+        if any(not amount_stated(ctx, b.component) for b in strong):
+            continue  # a strong enough base listed without an amount: how much is not known
+        # a dihydrochloride brings two protons; an acid written beside the amine, one
+        need = (1 if beside is not None else acid_protons_in_salt(comp)) + acid_need
         if have + 0.05 >= need:
             continue
         assumed = a1 or any(b.assumed for b in bases)
         atoms = [(comp.index, s.atom_index) for s in sites]
-        if len(Chem.GetMolFrags(comp.mol)) == 1 and not any(a.GetFormalCharge() for a in comp.mol.GetAtoms()):
+        if beside is None and len(Chem.GetMolFrags(comp.mol)) == 1 and not any(a.GetFormalCharge() for a in comp.mol.GetAtoms()):
             # the acid is on the amine's own molecule (an aminosulfonic acid): an inner salt
             # whose share of free amine depends on the pH; patents often leave the pH
             # adjustment out of the reagent list
@@ -572,9 +584,11 @@ def amine_salt_not_freed(ctx: Context):
                 severity="warning",
             )
             continue
-        salt = _salt_name(ctx, comp)
+        salt = _salt_name(ctx, beside or comp)
         msg = (
-            f"{comp.label} is the {salt} of an amine (pKa {pka:.1f}): its nitrogen carries a proton and cannot react "
+            (f"{comp.label} is written with {beside.label} beside it, as its {salt} (pKa {pka:.1f}): " if beside is not None
+             else f"{comp.label} is the {salt} of an amine (pKa {pka:.1f}): ")
+            + "its nitrogen carries a proton and cannot react "
             f"until a base takes it off. It needs {need:g} equiv of a base with a conjugate-acid pKa of about {pka - 1:.0f} "
             f"or more ({need - acid_need:g} to free the amine"
             + (", 1 for the acid the reaction releases" if acid_need else "")
