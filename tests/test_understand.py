@@ -44,6 +44,8 @@ def understanding(text: str):
         ("CC(=O)Nc1ccccc1.O=[N+]([O-])O>OS(=O)(=O)O>CC(=O)Nc1ccc([N+](=O)[O-])cc1", "ring_substitution.nitration"),
         ("O=[N+]([O-])c1ccccc1>[H][H].[Pd]>Nc1ccccc1", "reduction.nitro"),
         ("NCc1ccccc1.Cl>CCOCC>[NH3+]Cc1ccccc1.[Cl-]", "acid_base"),
+        # free-basing a hydrochloride written as neutral fragments (common practice)
+        ("Cl.NCc1ccccc1.[Na+].[OH-]>O.ClCCl>NCc1ccccc1", "acid_base"),
     ],
 )
 def test_textbook_reactions_get_their_class(text, class_id):

@@ -118,6 +118,9 @@ class _Matcher:
     def __init__(self, rxn: Reaction) -> None:
         self._mols = {c.index: c.mol for c in rxn.components}
         self._hits: dict[tuple[int, str], frozenset[int]] = {}
+        # a salt's fragments joined or parted: a product (or reactant) written as several
+        # fragments, the amine and its acid
+        self.regrouped = any(len(c.fragments) > 1 for c in rxn.products + rxn.reactants)
 
     def fits(self, atom: Atom, smarts: str) -> bool:
         key = (atom[0], smarts)
@@ -185,7 +188,9 @@ def _fits(cls: ReactionClass, m: _Matcher, centre: Centre, elements: set[str]):
     if cls.metal_none and elements.intersection(cls.metal_none):
         return None
     if cls.no_changes:
-        if centre.changes or not (centre.h_changes or centre.charge_changes):
+        # no bond made or broken: protons moved (drawn as ions), or the fragments of a salt
+        # joined or parted (drawn as neutral fragments, "Cl.NCc1ccccc1")
+        if centre.changes or not (centre.h_changes or centre.charge_changes or m.regrouped or centre.leaving):
             return None
         return ClassMatch(cls)
     formed = _assign(
