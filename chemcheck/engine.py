@@ -174,7 +174,6 @@ def check(reaction: str | Reaction, amounts: dict[str, str] | None = None) -> Re
                     fix="Please report this reaction to the chemcheck developers.",
                 )
             )
-    sections = _basicity_sections(ctx)
     amap = ctx.understanding.amap
     if amap.source == "none" and amap.note and MAPPING_CAP_MARK in amap.note:
         budget.skip(f"the atom map ({amap.note})")
@@ -188,7 +187,7 @@ def check(reaction: str | Reaction, amounts: dict[str, str] | None = None) -> Re
         perceptions={c.index: ctx.perception(c) for c in rxn.components},
         balance=ctx.balance,
     )
-    report.extra.update(sections)
+    report.extra.defer(("basicity", "workup", "separations"), lambda: _deferred_sections(ctx, budget, report))
     report.extra["understanding"] = ctx.understanding.to_dict()
     report.roles = dict(ctx.understanding.roles)
     preds = getattr(ctx, "predictions", None) or []
@@ -288,6 +287,17 @@ def _budget_finding(budget: Budget) -> Finding:
         fix="Check the parts named by hand, or split the structure into smaller pieces (a repeat unit, "
         "the reacting fragment) and check those.",
     )
+
+
+def _deferred_sections(ctx: Context, budget: Budget, report: Report) -> dict:
+    """The basicity and workup sections, worked out when the report is first shown or
+    serialised; work they skip within the budget is added to the report's budget note."""
+    before = list(budget.skipped)
+    sections = _basicity_sections(ctx)
+    if budget.skipped != before:
+        report.findings[:] = [f for f in report.findings if f.rule != "check-budget-reached"]
+        report.findings.append(_budget_finding(budget))
+    return sections
 
 
 def _basicity_sections(ctx: Context) -> dict:

@@ -17,6 +17,32 @@ MIME_TYPE = "application/vnd.chemcheck.report+json"
 SCHEMA_VERSION = "1"
 
 
+class Sections(dict):
+    """The report's sections by payload key; some are worked out only when first read (the
+    basicity table and workup advice of every component, products included, which no rule
+    needs): a key of ``deferred`` that is read, or ``resolve()``, computes them all."""
+
+    def __init__(self, *args, **kw) -> None:
+        super().__init__(*args, **kw)
+        self._deferred: tuple[tuple[str, ...], Any] | None = None
+
+    def defer(self, keys: tuple[str, ...], compute) -> None:
+        self._deferred = (tuple(keys), compute)
+
+    def resolve(self) -> None:
+        if self._deferred is not None:
+            _keys, compute = self._deferred
+            self._deferred = None
+            for k, v in compute().items():
+                self.setdefault(k, v)
+
+    def __missing__(self, key):
+        if self._deferred is not None and key in self._deferred[0]:
+            self.resolve()
+            return self[key]
+        raise KeyError(key)
+
+
 def schema() -> dict:
     return json.loads(resources.files("chemcheck").joinpath("schema/report.schema.json").read_text())
 
@@ -28,7 +54,7 @@ class Report:
     amounts: dict[str, str] = field(default_factory=dict)
     perceptions: dict[int, Any] = field(default_factory=dict)
     balance: Any = None
-    extra: dict[str, Any] = field(default_factory=dict)  # sections added by later stages
+    extra: dict[str, Any] = field(default_factory=Sections)  # sections added by later stages
     stoichiometry: Any = None
     roles: dict[int, str] = field(default_factory=dict)  # each component's role in this reaction
 
@@ -93,6 +119,8 @@ class Report:
             "counts": self.counts(),
             "balance": self.balance.to_dict() if self.balance is not None else None,
         }
+        if isinstance(self.extra, Sections):
+            self.extra.resolve()
         out.update(self.extra)
         return out
 

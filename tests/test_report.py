@@ -129,3 +129,12 @@ def test_free_aniline_with_alcl3_is_one_error_with_both_reasons():
 def test_an_unnamed_compound_is_named_by_its_ring_system_or_group(reaction, label):
     report = chemcheck.check(reaction)
     assert report.reaction.components[0].label == label
+
+
+def test_the_basicity_sections_are_worked_out_when_first_read():
+    # no rule needs the products' basicity: check() leaves it to the first reader
+    report = chemcheck.check("CCCCCN.CC(=O)Cl>CCN(CC)CC>CCCCCNC(C)=O")
+    assert "basicity" not in dict.keys(report.extra)
+    rows = report.extra["basicity"]
+    assert any(r["component"] == 3 and r["kind"] == "amide" for r in rows)  # the product's N
+    assert report.to_dict()["basicity"] == rows and "workup" in report.to_dict()
