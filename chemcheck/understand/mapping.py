@@ -531,9 +531,10 @@ def _neutral_amines(frag: Chem.Mol) -> Chem.Mol:
 #: the mapper reads the reaction this many times, its atoms in different orders; the answer
 #: with the fewest bond changes (minimal chemical distance) is kept
 VARIANTS = 3
-#: a reading that places every product atom with at most this many bond changes (one formed,
-#: one broken: a substitution) is kept without trying the others
-EARLY_STOP_CHANGES = 2
+#: a reading that places every product atom with at most this many bond changes is kept
+#: without trying the others (measured on the curated rows: 2, 4 and 8 agree equally often
+#: with the source's maps within 0.3 points; 4 halves the p95 cost of 2)
+EARLY_STOP_CHANGES = 4
 
 
 def _indigo_map(rxn: Reaction, timeout_s: float, variants: int = VARIANTS) -> list[tuple[Atom, Atom]]:
