@@ -17,7 +17,7 @@ from ..report import MIME_TYPE
 __all__ = ["CheckPad", "pad"]
 
 # typing pauses shorter than this are one edit; the check itself takes tens of milliseconds
-DEBOUNCE_S = 0.06
+DEBOUNCE_S = 0.03
 
 
 class CheckPad:
