@@ -258,10 +258,24 @@ _RING_WORDS = tuple(
 )
 
 
+# the acylating and sulfonylating groups name their compound before any amine it carries
+_ACYL_WORDS = {"acid_halide", "sulfonyl_halide", "chloroformate", "anhydride", "isocyanate", "isothiocyanate"}
+_AMINE_KINDS = ("primary_amine", "secondary_amine", "aryl_amine", "tertiary_amine")
+
+
 def _word_for(perception, role: str, mol=None) -> str:
     if role == "product":
         return "product"
     names = perception.group_names
+    for group, word in _GROUP_WORDS:
+        if group in _ACYL_WORDS and group in names:
+            return word
+    # then the amine: in amine chemistry the nitrogen is what the compound is there for (an
+    # amino ketone reads "amine 1", not "ketone 1", when its N is acylated)
+    kinds = {site.kind for site in perception.nitrogens}
+    for kind in _AMINE_KINDS:
+        if kind in kinds:
+            return _N_WORDS[kind]
     for group, word in _GROUP_WORDS:
         if group in names and not (group in ("ester", "aryl_halide") and perception.basic_nitrogens):
             return word
