@@ -110,6 +110,16 @@ def _pair(x: Atom, y: Atom) -> tuple[Atom, Atom]:
 def reaction_centre(rxn: Reaction, amap: AtomMap) -> Centre:
     """The bonds formed, broken and changed in order, and per-atom hydrogen and charge changes,
     that ``amap`` implies for ``rxn``."""
+    memo = getattr(amap, "_centre", None)
+    if memo and memo[0] is rxn:
+        return memo[1]
+    centre = _reaction_centre(rxn, amap)
+    if memo is not None:
+        memo[:] = [rxn, centre]
+    return centre
+
+
+def _reaction_centre(rxn: Reaction, amap: AtomMap) -> Centre:
     comps = rxn.components
     changes: list[BondChange] = []
     seen_before: set[tuple[Atom, Atom]] = set()

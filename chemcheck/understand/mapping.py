@@ -62,6 +62,9 @@ class AtomMap:
     set_aside: str | None = None
     _forward: dict = field(default_factory=dict, init=False, repr=False, compare=False)
     _backward: dict = field(default_factory=dict, init=False, repr=False, compare=False)
+    # the centre this map implies for a reaction, remembered (reaction_centre is asked several
+    # times per check: the quick route, the readings compared, the class)
+    _centre: list = field(default_factory=list, init=False, repr=False, compare=False)
 
     def __post_init__(self) -> None:
         fwd = self._forward
