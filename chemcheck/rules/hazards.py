@@ -134,7 +134,10 @@ def reactive_reagent_in_protic_solvent(ctx: Context):
     workup = any(_frag_has(c, _WORKUP) for c in rxn.agents)
     only_water = all(w == "water" for _, w in protic)
     # one name per substance: the waters of a hydrate written as separate fragments are one water
-    words = " and ".join({c.smiles: c.label for c, _ in reversed(protic)}[k] for k in dict.fromkeys(c.smiles for c, _ in protic))
+    first_label: dict[str, str] = {}
+    for c, _ in protic:
+        first_label.setdefault(c.smiles, c.label)
+    words = " and ".join(first_label.values())
     violent = [(c, _violent_reagent(c)) for c in pool]
     violent = [(c, hit) for c, hit in violent if hit is not None]
     if violent and not aprotic and not (only_water and workup):

@@ -170,8 +170,8 @@ GIVEN_PLAIN_CHANGES = 4
 
 
 def _checked_given(rxn: Reaction, timeout_s: float) -> AtomMap:
-    """The chemist's maps, unless they are incomplete or imply many bond changes and a
-    computed map explains the reaction with fewer (minimal chemical distance).
+    """The chemist's maps, unless they imply many bond changes and a computed map that covers
+    as much explains the reaction with fewer (minimal chemical distance).
 
     Maps from automatic extraction sometimes take an agent's atoms for the product's (the N of
     Et3N as the N of a carbamate, two of its carbons as the chain that carried the

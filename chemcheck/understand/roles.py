@@ -98,13 +98,11 @@ def resolve_roles(rxn: Reaction, family: str, contributing: frozenset[int], perc
     ``perception`` is a callable giving a component's Perception; ``contributing`` names the
     components that give atoms to a product (from the atom map).
     """
-    metal_present = any(
-        a.GetSymbol() in _METALS for c in rxn.components if c.role != "product" for a in c.mol.GetAtoms()
-    )
-    # elements of the other components (an organolithium beside TMEDA)
+    # elements of the reactants and agents (a metal catalyst, an organolithium beside TMEDA)
     elements = frozenset(
         a.GetSymbol() for c in rxn.components if c.role != "product" for a in c.mol.GetAtoms()
     )
+    metal_present = bool(elements & _METALS)
     roles: dict[int, str] = {}
     solvents: list[int] = []
     for comp in rxn.components:
