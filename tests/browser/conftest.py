@@ -193,8 +193,42 @@ def run_first_cell(page):
     )
 
 
-def save_notebook(page):
-    page.evaluate("window.jupyterapp.commands.execute('docmanager:save')")
-    page.wait_for_function(
-        "() => !window.jupyterapp.shell.currentWidget.context.model.dirty", timeout=30_000
-    )
+def save_notebook(page, timeout: float = 60.0):
+    """Save every open notebook and wait until each is clean on disk.
+
+    The save is awaited in the page (its failure is reported, not lost); a dialog JupyterLab
+    raises on the way (the file changed on disk, a kernel question) is answered so the save
+    goes through, and its text is part of the failure message if the save never completes.
+    """
+    start = """() => {
+          window.__ccSave = window.__ccSave || {};
+          for (const w of window.jupyterapp.shell.widgets('main')) {
+            if (!w.context || !w.context.model) continue;
+            const path = w.context.path;
+            if (window.__ccSave[path] === 'pending') continue;
+            window.__ccSave[path] = 'pending';
+            w.context.save().then(
+              () => { window.__ccSave[path] = w.context.model.dirty ? 'dirty' : 'saved'; },
+              err => { window.__ccSave[path] = 'failed: ' + err; }
+            );
+          }
+        }"""
+    page.evaluate("() => { window.__ccSave = {}; }")
+    page.evaluate(start)
+    deadline = time.monotonic() + timeout
+    seen, attempts = [], 1
+    while True:
+        states = page.evaluate("() => window.__ccSave")
+        if states and all(state == "saved" for state in states.values()):
+            return
+        dialog = page.locator(".jp-Dialog")
+        if dialog.count():
+            seen.append(dialog.first.inner_text())
+            overwrite = dialog.first.locator("button", has_text="Overwrite")
+            (overwrite if overwrite.count() else dialog.first.locator(".jp-mod-accept")).first.click()
+        elif attempts < 4 and any(s != "pending" and s != "saved" for s in states.values()):
+            attempts += 1  # changed again after the save (kernel metadata), or the save failed
+            page.evaluate(start)
+        if time.monotonic() > deadline:
+            raise AssertionError(f"notebook not saved within {timeout} s: {states}; dialogs seen: {seen}")
+        time.sleep(0.25)
