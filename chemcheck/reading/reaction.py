@@ -17,6 +17,7 @@ Each fragment may be SMILES or a reagent name; SMILES wins when a token reads as
 from __future__ import annotations
 
 import re
+from collections import Counter
 from collections.abc import Iterable, Sequence
 from dataclasses import dataclass, field, replace
 from functools import lru_cache
@@ -371,11 +372,19 @@ def _pair_ions(fragments: list[Fragment], ions: list[list[int]]) -> list[list[li
     if n > _MAX_IONS:
         return _adjacent_blocks(ions, charges)
     known = _known_salt_formulas()
+    counts = [_unit_counts(fragments, u) for u in ions]  # each ion's atoms, read once
 
+    from functools import lru_cache
+    from itertools import combinations
+
+    @lru_cache(maxsize=None)
     def score(block: tuple[int, ...]) -> float:
         if len(block) == 1:
             return -10.0  # an ion left without its counter-ion
-        if _block_formula(fragments, [ions[b] for b in block]) in known:
+        total: Counter[str] = Counter()
+        for b in block:
+            total.update(counts[b])
+        if _formula_text(total) in known:
             value = 3.0 + len(block)  # a known salt, the more ions it accounts for the better
         else:
             value = -0.5 * (len(block) - 2)
@@ -384,9 +393,6 @@ def _pair_ions(fragments: list[Fragment], ions: list[list[int]]) -> list[list[li
         if frag_idx[-1] - frag_idx[0] + 1 == len(frag_idx):
             value += 1.0
         return value
-
-    from functools import lru_cache
-    from itertools import combinations
 
     @lru_cache(maxsize=None)
     def best(remaining: frozenset[int]) -> tuple[float, tuple[tuple[int, ...], ...]]:
@@ -437,19 +443,29 @@ def _adjacent_blocks(ions: list[list[int]], charges: list[int]) -> list[list[lis
     return out
 
 
-def _block_formula(fragments: list[Fragment], units: list[list[int]]) -> str:
-    from collections import Counter
+def _unit_counts(fragments: list[Fragment], unit: list[int]) -> Counter[str]:
+    """Element counts (hydrogens included) of the fragments of one unit."""
+    counts: Counter[str] = Counter()
+    for i in unit:
+        mol = fragments[i].mol
+        if mol is None:
+            continue
+        for k in range(mol.GetNumAtoms()):
+            a = mol.GetAtomWithIdx(k)
+            counts[a.GetSymbol()] += 1
+            counts["H"] += a.GetTotalNumHs()
+    return counts
 
+
+def _formula_text(counts: Counter[str]) -> str:
+    return "".join(f"{el}{counts[el]}" for el in sorted(counts) if counts[el])
+
+
+def _block_formula(fragments: list[Fragment], units: list[list[int]]) -> str:
     counts: Counter[str] = Counter()
     for unit in units:
-        for i in unit:
-            mol = fragments[i].mol
-            if mol is None:
-                continue
-            for a in mol.GetAtoms():
-                counts[a.GetSymbol()] += 1
-                counts["H"] += a.GetTotalNumHs()
-    return "".join(f"{el}{counts[el]}" for el in sorted(counts) if counts[el])
+        counts.update(_unit_counts(fragments, unit))
+    return _formula_text(counts)
 
 
 @lru_cache(maxsize=1)

@@ -107,11 +107,14 @@ def amounts_given(ctx: Context) -> bool:
 def salt_info(ctx: Context, comp: Component) -> tuple[bool, list]:
     """(is an amine salt, the free-base sites) for a component."""
     p = ctx.perception(comp)
+    strong_acid = p.has("hydrogen_halide", "sulfonic_acid", "perfluoro_acid")
+    if not strong_acid and not any(s.kind == "ammonium" for s in p.nitrogens):
+        return False, []  # neither an N-H+ nor a strong acid beside an amine: no pKa needed
     sites = ctx.sites(comp)
     ammonium = [s for s in sites if s.kind == "ammonium" and s.pka is not None]
     if ammonium:
         return True, ammonium
-    if p.has("hydrogen_halide", "sulfonic_acid", "perfluoro_acid") and any(
+    if strong_acid and any(
         s.kind in NUCLEOPHILIC_N | {"tertiary_amine"} for s in sites
     ):
         return True, [s for s in sites if s.pka is not None]

@@ -720,6 +720,8 @@ def condensation_product_mismatch(ctx: Context):
     if any(ctx.perception(c).has(*ACYLATING, "boron_hydride", "aluminium_hydride", "dihydrogen") for c in rxn.reactants + rxn.agents):
         return  # acylation or reductive amination: not a plain condensation
     carbonyls = [c for c in rxn.reactants if ctx.perception(c).has("aldehyde", "ketone")]
+    if not carbonyls:
+        return
     amines = [
         (c, s) for c in rxn.reactants for s in ctx.sites(c)
         if s.kind in ("primary_amine", "secondary_amine", "tertiary_amine", "ammonia", "aryl_amine") and not salt_info(ctx, c)[0]

@@ -17,12 +17,12 @@ from __future__ import annotations
 
 from dataclasses import dataclass
 
-from rdkit import Chem
 
 from ..reading.reaction import Reaction
+from .graph import bond_order, graph_of
 from .mapping import Atom, AtomMap
 
-__all__ = ["BondChange", "Centre", "reaction_centre"]
+__all__ = ["BondChange", "Centre", "bond_order", "reaction_centre"]
 
 
 @dataclass(frozen=True)
@@ -81,28 +81,6 @@ class Centre:
         return bool(self.changes or self.h_changes or self.charge_changes)
 
 
-def bond_order(bond: Chem.Bond | None) -> float:
-    """Bond order as a number: aromatic 1.5, dative 1, none 0."""
-    if bond is None:
-        return 0.0
-    t = bond.GetBondType()
-    if t == Chem.BondType.AROMATIC or bond.GetIsAromatic():
-        return 1.5
-    if t == Chem.BondType.DATIVE:
-        return 1.0
-    return float(bond.GetBondTypeAsDouble())
-
-
-def _bond(rxn: Reaction, a: Atom, b: Atom) -> Chem.Bond | None:
-    if a[0] != b[0]:
-        return None
-    return rxn.components[a[0]].mol.GetBondBetweenAtoms(a[1], b[1])
-
-
-def _symbol(rxn: Reaction, a: Atom) -> str:
-    return rxn.components[a[0]].mol.GetAtomWithIdx(a[1]).GetSymbol()
-
-
 def _pair(x: Atom, y: Atom) -> tuple[Atom, Atom]:
     return (x, y) if x <= y else (y, x)
 
@@ -121,70 +99,70 @@ def reaction_centre(rxn: Reaction, amap: AtomMap) -> Centre:
 
 def _reaction_centre(rxn: Reaction, amap: AtomMap) -> Centre:
     comps = rxn.components
+    graphs = {c.index: graph_of(c) for c in comps}
+    origin = amap.origin
+    image_of = amap.image
     changes: list[BondChange] = []
     seen_before: set[tuple[Atom, Atom]] = set()
     # product side: every bond between two mapped product atoms
     for p in rxn.products:
-        for b in p.mol.GetBonds():
-            pa, pb = (p.index, b.GetBeginAtomIdx()), (p.index, b.GetEndAtomIdx())
-            oa, ob = amap.origin(*pa), amap.origin(*pb)
+        pg = graphs[p.index]
+        for i, j, after_order in pg.bonds:
+            pa, pb = (p.index, i), (p.index, j)
+            oa, ob = origin(*pa), origin(*pb)
             if oa is None or ob is None:
                 continue
-            before = _bond(rxn, oa, ob)
-            after_order = bond_order(b)
-            els = tuple(sorted((_symbol(rxn, pa), _symbol(rxn, pb))))
+            before = graphs[oa[0]].order.get((oa[1], ob[1])) if oa[0] == ob[0] else None
+            els = tuple(sorted((pg.symbol[i], pg.symbol[j])))
             pair_before = _pair(oa, ob)
             seen_before.add(pair_before)
             if before is None:
                 changes.append(BondChange("formed", pair_before, _pair(pa, pb), els, 0.0, after_order))
-            else:
-                ob_order = bond_order(before)
-                if ob_order != after_order:
-                    changes.append(BondChange("order", pair_before, _pair(pa, pb), els, ob_order, after_order))
+            elif before != after_order:
+                changes.append(BondChange("order", pair_before, _pair(pa, pb), els, before, after_order))
     # origin side: bonds of contributing components that do not survive. A partial map (a
     # chemist's map of the centre only, or a mapper's incomplete one) leaves atoms unmapped
     # that did reach a product: they are matched to unmapped product atoms by growing the map
     # along bonds of the same elements and order, and a bond to one of them is not broken.
-    implied = _implied(rxn, amap) if amap.coverage < 1 else {}
+    implied = _implied(rxn, amap, graphs) if amap.coverage < 1 else {}
 
     def image(a: Atom) -> Atom | None:
-        return amap.image(*a) or implied.get(a)
+        return image_of(*a) or implied.get(a)
 
     for ci in sorted(amap.contributing):
-        mol = comps[ci].mol
-        for b in mol.GetBonds():
-            ra, rb = (ci, b.GetBeginAtomIdx()), (ci, b.GetEndAtomIdx())
-            if amap.image(*ra) is None and amap.image(*rb) is None:
+        g = graphs[ci]
+        for i, j, o in g.bonds:
+            ra, rb = (ci, i), (ci, j)
+            if image_of(ci, i) is None and image_of(ci, j) is None:
                 continue
             pair = _pair(ra, rb)
             if pair in seen_before:
                 continue
             ia, ib = image(ra), image(rb)
-            if ia is not None and ib is not None and _bond(rxn, ia, ib) is not None:
+            if ia is not None and ib is not None and ia[0] == ib[0] and (ia[1], ib[1]) in graphs[ia[0]].order:
                 # both ends reach a product, bonded (through an implied atom, or a second image)
                 continue
             after = _pair(ia, ib) if ia is not None and ib is not None else None
-            els = tuple(sorted((_symbol(rxn, ra), _symbol(rxn, rb))))
-            changes.append(BondChange("broken", pair, after, els, bond_order(b), 0.0))
+            els = tuple(sorted((g.symbol[i], g.symbol[j])))
+            changes.append(BondChange("broken", pair, after, els, o, 0.0))
     h_changes: list[tuple[Atom, int]] = []
     q_changes: list[tuple[Atom, int]] = []
     for p_atom, o_atom in amap.pairs:
-        pa = comps[p_atom[0]].mol.GetAtomWithIdx(p_atom[1])
-        oa = comps[o_atom[0]].mol.GetAtomWithIdx(o_atom[1])
-        if pa.GetAtomicNum() <= 1:
+        pg, og = graphs[p_atom[0]], graphs[o_atom[0]]
+        if pg.z[p_atom[1]] <= 1:
             continue
-        dh = _hs(pa) - _hs(oa)
+        dh = pg.hs[p_atom[1]] - og.hs[o_atom[1]]
         if dh:
             h_changes.append((o_atom, dh))
-        dq = pa.GetFormalCharge() - oa.GetFormalCharge()
+        dq = pg.charge[p_atom[1]] - og.charge[o_atom[1]]
         if dq:
             q_changes.append((o_atom, dq))
     leaving = []
     for ci in sorted(amap.contributing):
+        g = graphs[ci]
         gone = tuple(
-            a.GetIdx()
-            for a in comps[ci].mol.GetAtoms()
-            if a.GetAtomicNum() > 1 and amap.image(ci, a.GetIdx()) is None and (ci, a.GetIdx()) not in implied
+            i for i, z in enumerate(g.z)
+            if z > 1 and image_of(ci, i) is None and (ci, i) not in implied
         )
         if gone:
             leaving.append((ci, gone))
@@ -193,36 +171,28 @@ def _reaction_centre(rxn: Reaction, amap: AtomMap) -> Centre:
     return Centre(tuple(changes), tuple(sorted(h_changes)), tuple(sorted(q_changes)), tuple(leaving))
 
 
-def _implied(rxn: Reaction, amap: AtomMap) -> dict[Atom, Atom]:
+def _implied(rxn: Reaction, amap: AtomMap, graphs) -> dict[Atom, Atom]:
     """Unmapped reactant atoms matched to unmapped product atoms, grown from the mapped pairs
     along bonds of the same order between atoms of the same element (first match wins)."""
-    comps = rxn.components
     taken_p = {p for p, _ in amap.pairs}
     out: dict[Atom, Atom] = {}
     queue = [(o, p) for p, o in amap.pairs]
     while queue:
         (rc, ra), (pc, pa) = queue.pop()
-        rmol, pmol = comps[rc].mol, comps[pc].mol
-        for rb in rmol.GetAtomWithIdx(ra).GetNeighbors():
-            rkey = (rc, rb.GetIdx())
-            if amap.image(*rkey) is not None or rkey in out or rb.GetAtomicNum() <= 1:
+        rg, pg = graphs[rc], graphs[pc]
+        for rb in rg.neighbours[ra]:
+            rkey = (rc, rb)
+            if rg.z[rb] <= 1 or rkey in out or amap.image(*rkey) is not None:
                 continue
-            r_order = bond_order(rmol.GetBondBetweenAtoms(ra, rb.GetIdx()))
-            for pb in pmol.GetAtomWithIdx(pa).GetNeighbors():
-                pkey = (pc, pb.GetIdx())
-                if pkey in taken_p or pb.GetAtomicNum() != rb.GetAtomicNum():
+            r_order = rg.order[(ra, rb)]
+            for pb in pg.neighbours[pa]:
+                pkey = (pc, pb)
+                if pkey in taken_p or pg.z[pb] != rg.z[rb]:
                     continue
-                if bond_order(pmol.GetBondBetweenAtoms(pa, pb.GetIdx())) != r_order:
+                if pg.order[(pa, pb)] != r_order:
                     continue
                 out[rkey] = pkey
                 taken_p.add(pkey)
                 queue.append((rkey, pkey))
                 break
     return out
-
-
-def _hs(atom: Chem.Atom) -> int:
-    try:
-        return atom.GetTotalNumHs(includeNeighbors=True)
-    except RuntimeError:  # a partly sanitized molecule without implicit counts
-        return atom.GetNumExplicitHs()

@@ -111,16 +111,14 @@ def _given(rxn: Reaction) -> AtomMap:
 
 
 def _result(rxn: Reaction, source: str, pairs, note: str | None) -> AtomMap:
-    comps = rxn.components
-    heavy_total = sum(1 for c in rxn.products for a in c.mol.GetAtoms() if a.GetAtomicNum() > 1)
+    from .graph import graph_of
+
+    z = {c.index: graph_of(c).z for c in rxn.components}
+    heavy_total = sum(1 for c in rxn.products for n in z[c.index] if n > 1)
     pairs = tuple(sorted(set(pairs)))
-    heavy_pairs = [
-        (p, o) for p, o in pairs if comps[p[0]].mol.GetAtomWithIdx(p[1]).GetAtomicNum() > 1
-    ]
+    heavy_pairs = [(p, o) for p, o in pairs if z[p[0]][p[1]] > 1]
     coverage = len(heavy_pairs) / heavy_total if heavy_total else 0.0
-    contributing = frozenset(
-        o[0] for _, o in heavy_pairs if comps[o[0]].mol.GetAtomWithIdx(o[1]).GetAtomicNum() > 1
-    )
+    contributing = frozenset(o[0] for _, o in heavy_pairs if z[o[0]][o[1]] > 1)
     return AtomMap(source, pairs, round(coverage, 6), note, contributing)
 
 
