@@ -77,6 +77,13 @@ def _mcs_map(r_smiles: str, p_smiles: str, avoid: frozenset = frozenset()) -> tu
             best = best_of(r, p, rm, found)
             if best is not None:
                 return tuple(zip(rm, best))
+        # the reactant's whole skeleton with other bond orders (a C=C, C#C, C#N, C=O or aromatic
+        # ring reduced, an alcohol oxidised): elements and connections compared, any bond
+        found = p.GetSubstructMatches(_skeleton(r), uniquify=False, maxMatches=200)
+        rm = tuple(range(r.GetNumAtoms()))
+        best = best_of(r, p, rm, found)
+        if best is not None:
+            return tuple(zip(rm, best))
         res = rdFMCS.FindMCS(
             [r, p],
             timeout=MCS_TIMEOUT_S,
@@ -97,6 +104,14 @@ def _mcs_map(r_smiles: str, p_smiles: str, avoid: frozenset = frozenset()) -> tu
         return ()
     best = best_of(r, p, rm, pms)
     return tuple(zip(rm, best)) if best is not None else ()
+
+
+def _skeleton(mol: Chem.Mol) -> Chem.Mol:
+    """``mol`` as a query whose bonds match any bond (atoms keep their element)."""
+    params = Chem.AdjustQueryParameters.NoAdjustments()
+    params.makeBondsGeneric = True
+    params.aromatizeIfPossible = False
+    return Chem.AdjustQueryProperties(mol, params)
 
 
 def _placement_cost(r: Chem.Mol, p: Chem.Mol, rm, pm) -> int:

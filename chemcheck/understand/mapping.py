@@ -246,8 +246,10 @@ def _compute(rxn: Reaction, timeout_s: float, quick: bool = True) -> AtomMap:
 QUICK = True
 #: bonds formed, broken or changed in order that a plain answer of the quick route may have
 QUICK_MAX_CHANGES = 4
-#: ... and at most this many when the centre reads as no catalogued class
-QUICK_ANY_CLASS_CHANGES = 2
+#: ... and at most this many when the centre reads as no catalogued class (measured on the
+#: curated rows, 5 December: 2 gives 90.6 % centre agreement, 4 gives 92.4 %, 6 gives 92.1 %;
+#: a Suzuki coupling or a Grignard addition is no class of the catalog and reads right)
+QUICK_ANY_CLASS_CHANGES = 4
 
 
 def _quick(rxn: Reaction) -> AtomMap | None:
