@@ -221,7 +221,7 @@ def _route_map(route: str, rxn, timeout_s: float):
     raise SystemExit(f"unknown route {route}")
 
 
-def score(rows, route: str, timeout_s: float = 2.0, show_misses: int = 0) -> dict:
+def score(rows, route: str, timeout_s: float = 0.5, show_misses: int = 0) -> dict:
     from chemcheck.errors import ChemcheckError
     from chemcheck.reading.reaction import parse_reaction
     from chemcheck.understand import map_reaction
@@ -340,7 +340,7 @@ def main(argv=None) -> int:
     ap.add_argument("--out")
     ap.add_argument("--limit", type=int)
     ap.add_argument("--b-limit", type=int, help="all A rows, and this many B rows spread evenly")
-    ap.add_argument("--timeout", type=float, default=2.0)
+    ap.add_argument("--timeout", type=float, default=0.5)
     ap.add_argument("--misses", type=int, default=0)
     ap.add_argument("--json")
     args = ap.parse_args(argv)

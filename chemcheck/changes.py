@@ -44,16 +44,38 @@ class NewBond:
 def _mcs_map(r_smiles: str, p_smiles: str, avoid: frozenset = frozenset()) -> tuple[tuple[int, int], ...]:
     """Pairs (reactant atom, product atom) of the closest placement of the reactant's common
     part in the product, on product atoms outside ``avoid`` (those another reactant holds)."""
+    with _rdlog.captured():
+        r = Chem.MolFromSmiles(r_smiles)
+        p = Chem.MolFromSmiles(p_smiles)
+        if r is None or p is None or r.GetNumAtoms() < 2:
+            return ()
+        frags = Chem.GetMolFrags(r)
+        if len(frags) == 1:
+            return _place(r, p, avoid)
+        # a salt or a hydrate: its largest part is placed (a counter-ion that reaches the
+        # product, the ammonium of NH4SCN, is completed from its neighbours or by the mapper)
+        keep = max(frags, key=lambda f: (sum(1 for i in f if r.GetAtomWithIdx(i).GetAtomicNum() > 1), len(f)))
+        if len(keep) < 2:
+            return ()
+        part = Chem.RWMol(r)
+        for i in sorted(set(range(r.GetNumAtoms())) - set(keep), reverse=True):
+            part.RemoveAtom(i)
+        part = part.GetMol()
+        part.UpdatePropertyCache(strict=False)
+        Chem.FastFindRings(part)
+        back = sorted(keep)
+        return tuple((back[a], b) for a, b in _place(part, p, avoid))
+
+
+def _place(r: Chem.Mol, p: Chem.Mol, avoid: frozenset) -> tuple[tuple[int, int], ...]:
+    """The closest placement of ``r`` (one connected molecule), or of its largest common part,
+    in ``p``, on product atoms outside ``avoid``."""
 
     def best_of(r, p, rm, placements):
         free = [pm for pm in placements if not avoid.intersection(pm)]
         return min(free, key=lambda pm: _placement_cost(r, p, rm, pm)) if free else None
 
     with _rdlog.captured():
-        r = Chem.MolFromSmiles(r_smiles)
-        p = Chem.MolFromSmiles(p_smiles)
-        if r is None or p is None or r.GetNumAtoms() < 2:
-            return ()
         # the whole reactant inside the product (an amine that is acylated or alkylated): the
         # common substructure is the reactant itself, found without the MCS search
         whole = p.GetSubstructMatches(r, uniquify=False, maxMatches=200)
@@ -63,20 +85,14 @@ def _mcs_map(r_smiles: str, p_smiles: str, avoid: frozenset = frozenset()) -> tu
             return tuple(zip(rm, best))
         # the reactant without one terminal halogen (an acid or sulfonyl chloride, an alkyl
         # halide that has reacted): again no search is needed
-        for atom in r.GetAtoms():
-            if atom.GetAtomicNum() not in (17, 35, 53) or atom.GetDegree() != 1 or r.GetNumAtoms() < 3:
-                continue
-            x = atom.GetIdx()
-            core = Chem.RWMol(r)
-            core.RemoveAtom(x)
-            core = core.GetMol()
-            core.UpdatePropertyCache(strict=False)
-            Chem.FastFindRings(core)
-            found = p.GetSubstructMatches(core, uniquify=False, maxMatches=200)
-            rm = tuple(i for i in range(r.GetNumAtoms()) if i != x)
-            best = best_of(r, p, rm, found)
-            if best is not None:
-                return tuple(zip(rm, best))
+        if r.GetNumAtoms() >= 3:
+            for atom in r.GetAtoms():
+                if atom.GetAtomicNum() not in (17, 35, 53) or atom.GetDegree() != 1:
+                    continue
+                rm, core = _without(r, atom.GetIdx())
+                best = best_of(r, p, rm, p.GetSubstructMatches(core, uniquify=False, maxMatches=200))
+                if best is not None:
+                    return tuple(zip(rm, best))
         # the reactant's whole skeleton with other bond orders (a C=C, C#C, C#N, C=O or aromatic
         # ring reduced, an alcohol oxidised): elements and connections compared, any bond
         found = p.GetSubstructMatches(_skeleton(r), uniquify=False, maxMatches=200)
@@ -84,6 +100,23 @@ def _mcs_map(r_smiles: str, p_smiles: str, avoid: frozenset = frozenset()) -> tu
         best = best_of(r, p, rm, found)
         if best is not None:
             return tuple(zip(rm, best))
+        # the reactant without one terminal N, O or S (the OH of an acid coupled to an amine,
+        # the O of a ketone or amide that leaves in a condensation, the NH2 of a diazotisation),
+        # its bonds as drawn, then free: the closest placement of all of them
+        if r.GetNumAtoms() >= 3:
+            for generic in (False, True):
+                options = []
+                for atom in r.GetAtoms():
+                    if atom.GetAtomicNum() not in (7, 8, 16, 17, 35, 53) or atom.GetDegree() != 1:
+                        continue
+                    rm, core = _without(r, atom.GetIdx())
+                    query = _skeleton(core) if generic else core
+                    for pm in p.GetSubstructMatches(query, uniquify=False, maxMatches=200):
+                        if not avoid.intersection(pm):
+                            options.append((_placement_cost(r, p, rm, pm), rm, pm))
+                if options:
+                    _, rm, pm = min(options, key=lambda o: o[0])
+                    return tuple(zip(rm, pm))
         res = rdFMCS.FindMCS(
             [r, p],
             timeout=MCS_TIMEOUT_S,
@@ -104,6 +137,16 @@ def _mcs_map(r_smiles: str, p_smiles: str, avoid: frozenset = frozenset()) -> tu
         return ()
     best = best_of(r, p, rm, pms)
     return tuple(zip(rm, best)) if best is not None else ()
+
+
+def _without(mol: Chem.Mol, x: int) -> tuple[tuple[int, ...], Chem.Mol]:
+    """``mol`` without atom ``x``, and the indices in ``mol`` of the atoms it keeps."""
+    core = Chem.RWMol(mol)
+    core.RemoveAtom(x)
+    core = core.GetMol()
+    core.UpdatePropertyCache(strict=False)
+    Chem.FastFindRings(core)
+    return tuple(i for i in range(mol.GetNumAtoms()) if i != x), core
 
 
 def _skeleton(mol: Chem.Mol) -> Chem.Mol:

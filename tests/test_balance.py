@@ -133,9 +133,16 @@ def test_a_reduction_needs_hydrogen_and_releases_water():
     assert got == [("H2", 1, "reactant"), ("H2O", 1, "product")]
     b, got = missing("O=[N+]([O-])c1ccc(C)cc1>[Pd]>Nc1ccc(C)cc1")
     assert got == [("H2", 3, "reactant"), ("H2O", 2, "product")]
-    report = chemcheck.check("Nc1ccccc1.O=C1CCCCC1>[Na+].[BH3-]C#N>C1CCC(Nc2ccccc2)CC1")
+    report = chemcheck.check("Nc1ccccc1.O=C1CCCCC1>>C1CCC(Nc2ccccc2)CC1")
     [f] = report.by_rule("unbalanced-equation")
     assert "H2 (or its equivalent from a reductant) is needed on the reactant side" in f.message
+    # with the reductant written among the agents the note names only the water left out
+    report = chemcheck.check("Nc1ccccc1.O=C1CCCCC1>[Na+].[BH3-]C#N>C1CCC(Nc2ccccc2)CC1")
+    [f] = report.by_rule("unbalanced-equation")
+    assert "H2 " not in f.message and "H2O is not drawn among the products" in f.message
+    # and a hydrogenation over Pd with H2 written and nothing left out gives no note at all
+    report = chemcheck.check("COC(=O)/C=C/c1ccccc1>[H][H].[Pd].CO>COC(=O)CCc1ccccc1")
+    assert not report.by_rule("unbalanced-equation")
 
 
 def test_an_exhaustive_methylation_to_the_quaternary_salt_takes_three_methyl_iodide():

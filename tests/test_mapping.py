@@ -316,6 +316,45 @@ def test_the_quick_route_keeps_a_plain_complete_answer(monkeypatch):
     assert summary(rxn, centre) == {("formed", ("C", "N")), ("broken", ("C", "Cl"))}
 
 
+def test_a_hydrogenation_is_placed_whole_with_its_bond_orders_free(monkeypatch):
+    # methyl cinnamate + H2 over Pd/C -> methyl 3-phenylpropanoate: the whole skeleton survives,
+    # only the C=C becomes single (common practice)
+    monkeypatch.setattr(mapping_mod, "QUICK", True)
+    mapping_mod.clear_cache()
+    rxn, amap, centre = centre_of("COC(=O)/C=C/c1ccccc1.[H][H]>[Pd].CO>COC(=O)CCc1ccccc1")
+    assert amap.source == "mcs" and amap.coverage == 1.0
+    assert not centre.formed() and not centre.broken()
+    (change,) = centre.order_changed()
+    assert change.elements == ("C", "C") and (change.order_before, change.order_after) == (2.0, 1.0)
+
+
+def test_an_acid_written_on_both_sides_is_carried_through(monkeypatch):
+    # a nitrile hydrogenated in the presence of TFA, the amine drawn beside its TFA (as patents
+    # write salts): the TFA of the products is the TFA of the agents, atom for atom, and the
+    # reaction reads as the nitrile reduction (common practice)
+    monkeypatch.setattr(mapping_mod, "QUICK", True)
+    mapping_mod.clear_cache()
+    rxn, amap, centre = centre_of("N#Cc1ccc(OC)cc1>CO.O=C(O)C(F)(F)F.[Pd]>NCc1ccc(OC)cc1.O=C(O)C(F)(F)F")
+    assert amap.source == "mcs" and amap.coverage == 1.0
+    tfa = next(c for c in rxn.products if "F" in c.smiles)
+    assert {o[0] for p, o in amap.pairs if p[0] == tfa.index} == {next(c.index for c in rxn.agents if "F" in c.smiles)}
+    assert not centre.formed() and not centre.broken()
+
+
+def test_a_coupled_acid_is_placed_without_its_oh(monkeypatch):
+    # an acid and an amine with a coupling agent: the acid less its OH is found whole in the
+    # amide, the C-N bond is formed and the C-O bond broken (Montalbetti & Falque, Tetrahedron
+    # 2005, 61, 10827)
+    monkeypatch.setattr(mapping_mod, "QUICK", True)
+    mapping_mod.clear_cache()
+    rxn, amap, centre = centre_of(
+        "OC(=O)c1ccc(Cl)cc1.C1COCCN1>CN(C)C(=[N+](C)C)On1nnc2cccnc21.F[P-](F)(F)(F)(F)F.CCN(C(C)C)C(C)C"
+        ">O=C(c1ccc(Cl)cc1)N1CCOCC1"
+    )
+    assert amap.source == "mcs" and amap.coverage == 1.0
+    assert summary(rxn, centre) == {("formed", ("C", "N")), ("broken", ("C", "O"))}
+
+
 @needs_mapper
 def test_the_quick_route_leaves_an_unclassified_answer_to_the_mapper(monkeypatch):
     # a Hantzsch thiazole synthesis (thioamide + alpha-bromoketone): several bonds change, the

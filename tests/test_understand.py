@@ -35,6 +35,10 @@ def understanding(text: str):
         ("NCc1ccccc1.CC(C)(C)OC(=O)OC(=O)OC(C)(C)C>>CC(C)(C)OC(=O)NCc1ccccc1", "protection.boc"),
         ("CC(C)(C)OC(=O)NCc1ccccc1>OC(=O)C(F)(F)F>NCc1ccccc1", "deprotection.boc"),
         ("Nc1ccccc1.O=C=NCCCl>>O=C(NCCCl)Nc1ccccc1", "urea.isocyanate"),
+        # an aryl thiourea from ammonium thiocyanate, through the benzoyl isothiocyanate made in
+        # acetone and hydrolysed (common practice; the pattern of patent reactions)
+        ("Nc1cccc(F)c1.N#C[S-].[NH4+]>CC(C)=O.O=C(Cl)c1ccccc1>NC(=S)Nc1cccc(F)c1", "urea.thiocyanate"),
+        ("N#CCc1ccc(OC)cc1>[H][H].[Ni]>NCCc1ccc(OC)cc1", "reduction.nitrile"),
         ("NCc1ccccc1.BrCc1ccccc1>K2CO3>c1ccc(CNCc2ccccc2)cc1", "alkylation.halide"),
         ("CCN(CC)CC.CI>>CC[N+](C)(CC)CC.[I-]", "quaternisation"),
         ("O=Cc1ccccc1.NCc1ccccc1>NaBH(OAc)3>C(NCc1ccccc1)c1ccccc1", "reductive_amination"),

@@ -20,6 +20,20 @@ def _verb(items: list[Missing]) -> str:
     return "is" if len(items) == 1 and items[0].count == 1 else "are"
 
 
+_REDUCTANT_GROUPS = ("dihydrogen", "boron_hydride", "aluminium_hydride")
+
+
+def _among_agents(ctx: Context, missing) -> bool:
+    """A reagent the balance needs on the left that the agents supply: the same formula, or
+    for H2 any reductant among them (H2 over Pd, NaBH4, LiAlH4)."""
+    for comp in ctx.reaction.agents:
+        if comp.formula == missing.formula:
+            return True
+        if missing.formula == "H2" and ctx.perception(comp).has(*_REDUCTANT_GROUPS):
+            return True
+    return False
+
+
 @rule(id="unbalanced-equation", title="Equation does not balance as drawn", severity="info")
 def unbalanced_equation(ctx: Context):
     """Compare the elements and charge of the reactants with those of the products.
@@ -31,7 +45,10 @@ def unbalanced_equation(ctx: Context):
         reductive amination, the salt of a base written among the reactants), it names them;
         otherwise it gives the element difference. An organic by-product is named only when
         a reactant holds it (methanol from a methyl ester, not from nowhere), so a product
-        drawn a carbon short shows as a difference rather than as a made-up by-product.
+        drawn a carbon short shows as a difference rather than as a made-up by-product. A
+        reagent the agents supply (H2 over Pd, or a borohydride for H2) is not asked for, and a
+        product that is the same molecule as an agent (the TFA of a salt written beside the
+        product) is carried through, outside the equation.
 
     Why it matters
         The by-product that is not drawn is often the one that matters: the HCl of an
@@ -57,7 +74,9 @@ def unbalanced_equation(ctx: Context):
     reactants = ctx.reaction.reactants
     if b.balanced:
         left = [m for m in b.missing if m.side == "product"]
-        needed = [m for m in b.missing if m.side == "reactant"]
+        needed = [m for m in b.missing if m.side == "reactant" and not _among_agents(ctx, m)]
+        if not left and not needed and all(k == 1 for k in b.coefficients.values()):
+            return  # what the reactants lack is written among the agents (H2 over Pd, water)
         coeff = {i: k for i, k in b.coefficients.items() if k != 1}
         parts, fixes = [], []
         if left:

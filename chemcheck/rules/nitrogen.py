@@ -1516,6 +1516,19 @@ def _activator(ctx: Context, comp) -> str | None:
     return None
 
 
+def _closes_lactam(mol, nb) -> bool:
+    """The new N-acyl bond of ``nb`` lies in a ring of five to seven atoms of the product."""
+    n = mol.GetAtomWithIdx(nb.product_atom)
+    for partner in nb.partners:
+        bond = mol.GetBondBetweenAtoms(nb.product_atom, partner)
+        if bond is None or not any(o.GetAtomicNum() == 8 and mol.GetBondBetweenAtoms(partner, o.GetIdx()).GetBondTypeAsDouble() == 2
+                                   for o in mol.GetAtomWithIdx(partner).GetNeighbors()):
+            continue
+        if n.IsInRing() and any(bond.IsInRingSize(k) for k in (5, 6, 7)):
+            return True
+    return False
+
+
 @rule(id="amide-from-unactivated-acid", title="Amide drawn from a carboxylic acid with nothing to activate it", severity="warning")
 def amide_from_unactivated_acid(ctx: Context):
     """A carboxylic acid and an amine drawn going to the amide with no coupling agent.
@@ -1575,6 +1588,11 @@ def amide_from_unactivated_acid(ctx: Context):
         product = rxn.components[nb.product]
         source = _acyl_source(ctx, product, nb, acids)
         if source is None:
+            continue
+        if _closes_lactam(product.mol, nb):
+            # the amide bond closes a five- to seven-membered ring: the amine is first joined to
+            # the acid by another new bond (an aza-Michael addition to itaconic acid, an
+            # alkylation), and the lactam then closes intramolecularly on warming
             continue
         acid, acid_atom = source
         site = next((s for s in ctx.sites(amine) if s.atom_index == nb.reactant_atom), None)
