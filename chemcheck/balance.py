@@ -209,17 +209,21 @@ _BALANCED = Memo()  # (reactant SMILES, product SMILES) -> result of _balance
 def balance(reaction: Reaction) -> Balance:
     """Whether the drawn equation balances, and the smallest coefficients and by-products that
     balance it. Depends only on the structures: remembered by the components' SMILES."""
-    reactants = reaction.reactants
-    if not reaction.products:
+    products = reaction.products
+    if not products:
         return Balance(False, False, checked=False)
-    # a product that is the same molecule as an agent (the acid of a salt written beside the
-    # product, a base on both sides) is carried through: it does not enter the equation
-    carried = {c.smiles for c in reaction.agents}
-    products = [c for c in reaction.products if c.smiles not in carried] or reaction.products
+    # an agent that is the same molecule as a product (the acid of a salt written beside the
+    # product, HCl that ends as the hydrochloride) enters the equation on the left, as the
+    # source of that product
+    reactants = list(reaction.reactants)
+    for prod in products:
+        same = next((c for c in reaction.agents if c.smiles == prod.smiles and c not in reactants), None)
+        if same is not None:
+            reactants.append(same)
     key = (tuple(c.smiles for c in reactants), tuple(c.smiles for c in products))
     hit = _BALANCED.get(key)
     if hit is None:
-        hit = _BALANCED.put(key, _balance(reaction, products))
+        hit = _BALANCED.put(key, _balance(reactants, products))
     drawn_ok, ok, coeffs, missing, residual, charge = hit
     species = reactants + products
     return Balance(drawn_ok, ok, {c.index: k for c, k in zip(species, coeffs)}, list(missing), dict(residual), charge)
@@ -267,8 +271,7 @@ def _spectator_salt(reactants, vectors, charges, drawn: Counter, drawn_q: int, l
     return None
 
 
-def _balance(reaction: Reaction, products: list[Component]) -> tuple:
-    reactants = reaction.reactants
+def _balance(reactants: list[Component], products: list[Component]) -> tuple:
     species: list[tuple[Component, int]] = [(c, 1) for c in reactants] + [(c, -1) for c in products]
     vectors = [counts_of(c) for c, _ in species]
     charges = [Chem.GetFormalCharge(c.mol) for c, _ in species]

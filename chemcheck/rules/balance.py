@@ -46,9 +46,9 @@ def unbalanced_equation(ctx: Context):
         otherwise it gives the element difference. An organic by-product is named only when
         a reactant holds it (methanol from a methyl ester, not from nowhere), so a product
         drawn a carbon short shows as a difference rather than as a made-up by-product. A
-        reagent the agents supply (H2 over Pd, or a borohydride for H2) is not asked for, and a
-        product that is the same molecule as an agent (the TFA of a salt written beside the
-        product) is carried through, outside the equation.
+        reagent the agents supply (H2 over Pd, or a borohydride for H2) is not asked for, and an
+        agent that is the same molecule as a product (the TFA of a salt written beside the
+        product, HCl that ends as the hydrochloride) enters the equation as its source.
 
     Why it matters
         The by-product that is not drawn is often the one that matters: the HCl of an
