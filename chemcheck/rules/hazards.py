@@ -7,6 +7,7 @@ from functools import lru_cache
 
 from rdkit import Chem
 
+from .._memo import Memo
 from . import Context, rule
 from .nitrogen import SAFETY
 
@@ -44,8 +45,17 @@ _ALCOHOL_SOLVENT = "[OX2H1][CX4]"
 _METAL = "[Li,Na,K,Mg,Ca,Zn,Al,Cs]"
 
 
+_HITS = Memo(16384)  # (text as written, canonical SMILES, SMARTS) -> first atoms of the matches
+
+
 def _frag_has(comp, smarts: str) -> list[int]:
-    return [m[0] for m in comp.mol.GetSubstructMatches(_q(smarts))]
+    """First atoms of the matches of ``smarts`` in ``comp``, remembered by the component's text
+    as written (the same text gives the same atom order: solvents and reagents recur)."""
+    key = (comp.text, comp.smiles, smarts)
+    hit = _HITS.get(key)
+    if hit is None:
+        hit = _HITS.put(key, tuple(m[0] for m in comp.mol.GetSubstructMatches(_q(smarts))))
+    return list(hit)
 
 
 def _violent_reagent(comp) -> tuple[str, int] | None:

@@ -231,7 +231,17 @@ def _fits(cls: ReactionClass, m: _Matcher, centre: Centre, elements: set[str]):
 
 def classify(rxn: Reaction, centre: Centre) -> ClassMatch:
     """The first catalog class the centre fits, with the others it also fits; ``other`` when
-    none does (or when nothing was mapped)."""
+    none does (or when nothing was mapped). Remembered on the centre for its reaction (the
+    quick route and the understanding both ask)."""
+    memo = centre.__dict__.get("_classified")
+    if memo is not None and memo[0] is rxn:
+        return memo[1]
+    out = _classify(rxn, centre)
+    centre.__dict__["_classified"] = (rxn, out)  # a frozen dataclass: its __dict__ holds the memo
+    return out
+
+
+def _classify(rxn: Reaction, centre: Centre) -> ClassMatch:
     if not rxn.products:
         return ClassMatch(OTHER)
     m = _Matcher(rxn)
