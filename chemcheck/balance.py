@@ -230,15 +230,19 @@ def balance(reaction: Reaction) -> Balance:
 
 
 def _reagent_and_by_product(diff: Counter, q: int, bps, sources, lookup) -> list[Missing] | None:
+    base = {e: v for e, v in diff.items() if v}
     for k in (1, 2, 3):
         for name, formula, vec, rq in bps:
             if rq:
                 continue
-            rest = Counter(diff)
-            rest.update({e: k * n for e, n in vec.items()})  # update keeps negative counts
-            rest = Counter({e: v for e, v in rest.items() if v})
-            if not rest or any(v < 0 for v in rest.values()):
+            rest = dict(base)
+            for e, n in vec.items():
+                rest[e] = rest.get(e, 0) + k * n
+            if any(v < 0 for v in rest.values()):
                 continue  # the arithmetic first: the structure search only for what adds up
+            rest = Counter({e: v for e, v in rest.items() if v})
+            if not rest:
+                continue
             right = lookup(rest, q, "product")
             if right and len(right) == 1 and _cut_from(name, sources["reactant"], "reactant"):
                 return [Missing(name, formula, k, "reactant"), *right]

@@ -23,6 +23,8 @@ from .reading.reaction import Reaction
 __all__ = ["NewBond", "new_bonds_at_nitrogen", "new_bonds_from_map", "atom_correspondence"]
 
 MCS_TIMEOUT_S = 1
+_TERMINAL_HALOGEN = Chem.MolFromSmarts("[#17,#35,#53;D1]")
+_TERMINAL_HETERO = Chem.MolFromSmarts("[#7,#8,#16,#17,#35,#53;D1]")
 
 
 @dataclass(frozen=True)
@@ -86,10 +88,8 @@ def _place(r: Chem.Mol, p: Chem.Mol, avoid: frozenset) -> tuple[tuple[int, int],
         # the reactant without one terminal halogen (an acid or sulfonyl chloride, an alkyl
         # halide that has reacted): again no search is needed
         if r.GetNumAtoms() >= 3:
-            for atom in r.GetAtoms():
-                if atom.GetAtomicNum() not in (17, 35, 53) or atom.GetDegree() != 1:
-                    continue
-                rm, core = _without(r, atom.GetIdx())
+            for (x,) in r.GetSubstructMatches(_TERMINAL_HALOGEN):
+                rm, core = _without(r, x)
                 best = best_of(r, p, rm, p.GetSubstructMatches(core, uniquify=False, maxMatches=200))
                 if best is not None:
                     return tuple(zip(rm, best))
@@ -106,10 +106,8 @@ def _place(r: Chem.Mol, p: Chem.Mol, avoid: frozenset) -> tuple[tuple[int, int],
         if r.GetNumAtoms() >= 3:
             for generic in (False, True):
                 options = []
-                for atom in r.GetAtoms():
-                    if atom.GetAtomicNum() not in (7, 8, 16, 17, 35, 53) or atom.GetDegree() != 1:
-                        continue
-                    rm, core = _without(r, atom.GetIdx())
+                for (x,) in r.GetSubstructMatches(_TERMINAL_HETERO):
+                    rm, core = _without(r, x)
                     query = _skeleton(core) if generic else core
                     for pm in p.GetSubstructMatches(query, uniquify=False, maxMatches=200):
                         if not avoid.intersection(pm):

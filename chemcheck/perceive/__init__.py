@@ -169,8 +169,12 @@ def reactive_groups(mol: Chem.Mol) -> list[GroupMatch]:
     return [GroupMatch(g.name, tuple(order[i] for i in g.atoms), g.detail) for g in groups]
 
 
+_ANY_N = Chem.MolFromSmarts("[#7]")
+_ANY_AG = Chem.MolFromSmarts("[Ag]")
+
+
 def _nitrogen_sites(mol: Chem.Mol) -> list[NitrogenSite]:
-    n_count = sum(1 for a in mol.GetAtoms() if a.GetAtomicNum() == 7)
+    n_count = len(mol.GetSubstructMatches(_ANY_N, maxMatches=100000))
     if not n_count:
         return []
     _ensure_rings(mol)
@@ -237,6 +241,9 @@ def _reactive_groups(mol: Chem.Mol) -> list[GroupMatch]:
 _LA_METALS = frozenset("B Al Ga In Fe Ti Sn Zn Sc Bi Zr Hf Cu Mg Yb La Ce Sm Hg".split())
 _HALOGENS = frozenset((9, 17, 35, 53))
 _TRIFLATE = "[OX2]S(=O)(=O)C(F)(F)F"
+_LA_OR_SI = Chem.MolFromSmarts(
+    "[" + ",".join(f"#{Chem.GetPeriodicTable().GetAtomicNumber(e)}" for e in sorted(_LA_METALS | {"Si"})) + "]"
+)
 
 
 def _ligand_count(mol: Chem.Mol, atom: Chem.Atom, triflate_o: set[int]) -> int:
@@ -258,6 +265,8 @@ def lewis_acid_centres(mol: Chem.Mol) -> list[int]:
     Borohydrides and metal hydrides are reductants, tetrafluoroborate and tetrachloroaluminate
     are saturated anions, boronic acids and esters are weak: none of them counts.
     """
+    if not mol.HasSubstructMatch(_LA_OR_SI):
+        return []  # none of the metals, metalloids or silicon a Lewis acid is centred on
     triflate_o = {m[0] for m in mol.GetSubstructMatches(compiled(_TRIFLATE))}
     anions = sum(
         1
@@ -296,6 +305,8 @@ def lewis_acid_centres(mol: Chem.Mol) -> list[int]:
 
 
 def _silver_oxide(mol: Chem.Mol) -> bool:
+    if not mol.HasSubstructMatch(_ANY_AG):
+        return False
     symbols = [a.GetSymbol() for a in mol.GetAtoms()]
     return "Ag" in symbols and "O" in symbols and "C" not in symbols and "N" not in symbols
 

@@ -18,6 +18,7 @@ from rdkit import Chem
 from .. import _rdlog
 from ..reading.reaction import Reaction
 from .centre import BondChange, Centre
+from .graph import graph_of
 
 __all__ = ["ReactionClass", "ClassMatch", "catalog", "classify", "OTHER"]
 
@@ -143,8 +144,7 @@ def _metals(rxn: Reaction) -> set[str]:
     for c in rxn.components:
         if c.role == "product":
             continue
-        for a in c.mol.GetAtoms():
-            out.add(a.GetSymbol())
+        out.update(graph_of(c).symbol)
     return out
 
 

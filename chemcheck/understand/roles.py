@@ -19,6 +19,7 @@ from rdkit import Chem
 
 from .. import _rdlog
 from ..reading.reaction import Component, Reaction
+from .graph import graph_of
 
 __all__ = ["ROLES", "resolve_roles", "formula_counts"]
 
@@ -100,7 +101,7 @@ def resolve_roles(rxn: Reaction, family: str, contributing: frozenset[int], perc
     """
     # elements of the reactants and agents (a metal catalyst, an organolithium beside TMEDA)
     elements = frozenset(
-        a.GetSymbol() for c in rxn.components if c.role != "product" for a in c.mol.GetAtoms()
+        sym for c in rxn.components if c.role != "product" for sym in graph_of(c).symbol
     )
     metal_present = bool(elements & _METALS)
     roles: dict[int, str] = {}
