@@ -401,9 +401,11 @@ def _pair_ions(fragments: list[Fragment], ions: list[list[int]]) -> list[list[li
         first = min(remaining)
         rest = sorted(remaining - {first})
         options = [(first,)]
+        target = -charges[first]
+        charge_of = charges.__getitem__
         for size in range(1, min(len(rest), 6) + 1):
             for combo in combinations(rest, size):
-                if charges[first] + sum(charges[c] for c in combo) == 0:
+                if sum(map(charge_of, combo)) == target:
                     options.append((first, *combo))
         top: tuple[float, tuple[tuple[int, ...], ...]] | None = None
         for block in options:
