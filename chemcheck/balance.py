@@ -229,24 +229,42 @@ def balance(reaction: Reaction) -> Balance:
     return Balance(drawn_ok, ok, {c.index: k for c, k in zip(species, coeffs)}, list(missing), dict(residual), charge)
 
 
-def _reagent_and_by_product(diff: Counter, q: int, bps, sources, lookup) -> list[Missing] | None:
-    base = {e: v for e, v in diff.items() if v}
+def _reagent_and_by_product(diff: Counter, q: int, bps, cut, lookup) -> list[Missing] | None:
+    for name, formula, k, options in _reagent_candidates(_key(diff), q):
+        right = None
+        for found in options:
+            if all(cut(m.name, "product") for m in found):
+                right = [Missing(m.name, m.formula, m.count, "product") for m in found]
+                break
+        if right and len(right) == 1 and cut(name, "reactant"):
+            return [Missing(name, formula, k, "reactant"), *right]
+    return None
+
+
+@lru_cache(maxsize=4096)
+def _reagent_candidates(diff: frozenset, q: int) -> tuple:
+    """(reagent, formula, count, by-product options) whose arithmetic closes ``diff`` (reactants
+    minus products, as ``_key`` gives it): a reagent in, then one or two by-products out. The
+    structure checks are the caller's; the arithmetic depends on the difference only."""
+    table = _by_product_table()
+    base = dict(diff)
+    out = []
     for k in (1, 2, 3):
-        for name, formula, vec, rq in bps:
+        for name, formula, vec, rq in _by_product_vectors():
             if rq:
                 continue
             rest = dict(base)
             for e, n in vec.items():
                 rest[e] = rest.get(e, 0) + k * n
             if any(v < 0 for v in rest.values()):
-                continue  # the arithmetic first: the structure search only for what adds up
+                continue
             rest = Counter({e: v for e, v in rest.items() if v})
             if not rest:
                 continue
-            right = lookup(rest, q, "product")
-            if right and len(right) == 1 and _cut_from(name, sources["reactant"], "reactant"):
-                return [Missing(name, formula, k, "reactant"), *right]
-    return None
+            options = table.get(_key(rest) | {("__q", q)})
+            if options:
+                out.append((name, formula, k, tuple(tuple(found) for found in options)))
+    return tuple(out)
 
 
 _ACIDS = frozenset({
@@ -300,9 +318,17 @@ def _balance(reactants: list[Component], products: list[Component]) -> tuple:
         "reactant": tuple(c.mol for c in products),  # a left-out reagent ends up in a product
     }
 
+    cuts: dict[tuple[str, str], bool] = {}  # (by-product, side) -> can come from that side
+
+    def cut(name: str, side: str) -> bool:
+        hit = cuts.get((name, side))
+        if hit is None:
+            hit = cuts[(name, side)] = _cut_from(name, sources[side], side)
+        return hit
+
     def lookup(vec: Counter, q: int, side: str) -> list[Missing] | None:
         for found in table.get(_key(vec) | {("__q", q)}, ()):
-            if all(_cut_from(m.name, sources[side], side) for m in found):
+            if all(cut(m.name, side) for m in found):
                 return [Missing(m.name, m.formula, m.count, side) for m in found]
         return None
 
@@ -326,7 +352,7 @@ def _balance(reactants: list[Component], products: list[Component]) -> tuple:
             elif extra == 0:
                 # a reagent left out on the left and a by-product on the right (a hydrolysis:
                 # water in, HCl out)
-                found = _reagent_and_by_product(diff, q, bps, sources, lookup)
+                found = _reagent_and_by_product(diff, q, bps, cut, lookup)
             cand = None
             if found:
                 needed = sum(1 for m in found if m.side == "reactant")
@@ -336,7 +362,7 @@ def _balance(reactants: list[Component], products: list[Component]) -> tuple:
     if best is None and _key(drawn):
         # nothing closes it with coefficients: a reagent in and a by-product out even where the
         # difference is all on one side (a reduction drawn without its H2: water out, H2 in)
-        found = _reagent_and_by_product(drawn, drawn_q, bps, sources, lookup)
+        found = _reagent_and_by_product(drawn, drawn_q, bps, cut, lookup)
         if found:
             best = (0, len(found), ones, found)
     if best is not None:
