@@ -9,7 +9,7 @@ from rdkit import Chem
 from .errors import ChemcheckError
 from .findings import Finding
 from .reading.reaction import Reaction, parse_reaction
-from .report import Report
+from .report import Perceptions, Report
 from ._budget import MAPPING_CAP_MARK, Budget, budget_of
 from .rules import Context, registry
 
@@ -86,7 +86,7 @@ def check(reaction: str | Reaction, amounts: dict[str, str] | None = None) -> Re
     for comp in rxn.components:
         comp.kind = ctx.perception(comp).kind if comp.role == "agent" else None
         if not comp.name:
-            comp.word = _word_for(ctx.perception(comp), comp.role, comp.mol)
+            comp.word = "product" if comp.role == "product" else _word_for(ctx.perception(comp), comp.role, comp.mol)
     stoich = ctx.stoichiometry  # amount errors are raised here, before any rule runs
     findings: list[Finding] = []
     for comp in rxn.components:
@@ -180,11 +180,14 @@ def check(reaction: str | Reaction, amounts: dict[str, str] | None = None) -> Re
     if budget.skipped:
         findings.append(_budget_finding(budget))
     findings.sort(key=lambda f: _SEVERITY_ORDER[f.severity])
+    known = ctx.perceived()  # a product's perception, which no rule reads, on first use
     report = Report(
         reaction=rxn,
         findings=findings,
         amounts=dict(amounts or {}),
-        perceptions={c.index: ctx.perception(c) for c in rxn.components},
+        perceptions=Perceptions(
+            known, {c.index: (lambda c=c: ctx.perception(c)) for c in rxn.components if c.index not in known}
+        ),
         balance=ctx.balance,
     )
     report.extra.defer(("basicity", "workup", "separations"), lambda: _deferred_sections(ctx, budget, report))

@@ -43,6 +43,54 @@ class Sections(dict):
         raise KeyError(key)
 
 
+class Perceptions(dict):
+    """Each component's perception by index; those no rule asked for (the products') are
+    worked out when first read."""
+
+    def __init__(self, known: dict, pending: dict) -> None:
+        super().__init__(known)
+        self._pending = dict(pending)  # index -> callable giving the perception
+
+    def __missing__(self, key):
+        compute = self._pending.pop(key, None)
+        if compute is None:
+            raise KeyError(key)
+        self[key] = value = compute()
+        return value
+
+    def get(self, key, default=None):
+        try:
+            return self[key]
+        except KeyError:
+            return default
+
+    def __contains__(self, key) -> bool:
+        return dict.__contains__(self, key) or key in self._pending
+
+    def _resolve(self) -> None:
+        for key in list(self._pending):
+            self[key]
+
+    def __iter__(self):
+        self._resolve()
+        return super().__iter__()
+
+    def __len__(self) -> int:
+        return dict.__len__(self) + len(self._pending)
+
+    def keys(self):
+        self._resolve()
+        return super().keys()
+
+    def values(self):
+        self._resolve()
+        return super().values()
+
+    def items(self):
+        self._resolve()
+        return super().items()
+
+
 def schema() -> dict:
     return json.loads(resources.files("chemcheck").joinpath("schema/report.schema.json").read_text())
 

@@ -138,3 +138,17 @@ def test_the_basicity_sections_are_worked_out_when_first_read():
     rows = report.extra["basicity"]
     assert any(r["component"] == 3 and r["kind"] == "amide" for r in rows)  # the product's N
     assert report.to_dict()["basicity"] == rows and "workup" in report.to_dict()
+
+
+def test_a_products_perception_is_there_when_read():
+    # no rule reads the product's perception, so it is worked out on first use; reading it
+    # must give the same as perceiving the product directly (an amide, common practice)
+    from chemcheck.perceive import perceive
+
+    report = chemcheck.check("CCN.CC(=O)Cl>CCN(CC)CC>CCNC(C)=O")
+    product = report.reaction.products[0]
+    assert product.index in report.perceptions and len(report.perceptions) == len(report.reaction.components)
+    got = report.perceptions.get(product.index)
+    assert got is not None and got.nitrogens == perceive(product.mol).nitrogens
+    assert [s.kind for s in got.nitrogens] == ["amide"]
+    assert set(dict(report.perceptions.items())) == {c.index for c in report.reaction.components}

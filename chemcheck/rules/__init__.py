@@ -46,6 +46,10 @@ class Context:
             self._perception[component.index] = p
         return p
 
+    def perceived(self) -> dict[int, Perception]:
+        """The perceptions worked out so far, by component index."""
+        return dict(self._perception)
+
     def sites(self, component: Component) -> list:
         """The basicity sites of a component (pKa of each nitrogen's conjugate acid)."""
         s = self._sites.get(component.index)
