@@ -229,7 +229,7 @@ def balance(reaction: Reaction) -> Balance:
     return Balance(drawn_ok, ok, {c.index: k for c, k in zip(species, coeffs)}, list(missing), dict(residual), charge)
 
 
-def _reagent_and_by_product(diff: Counter, q: int, bps, cut, lookup) -> list[Missing] | None:
+def _reagent_and_by_product(diff: Counter, q: int, cut) -> list[Missing] | None:
     for name, formula, k, options in _reagent_candidates(_key(diff), q):
         right = None
         for found in options:
@@ -312,7 +312,6 @@ def _balance(reactants: list[Component], products: list[Component]) -> tuple:
     drawn_ok = not _key(drawn) and drawn_q == 0
 
     table = _by_product_table()
-    bps = _by_product_vectors()
     sources = {
         "product": tuple(c.mol for c in reactants),  # a left-out by-product comes from a reactant
         "reactant": tuple(c.mol for c in products),  # a left-out reagent ends up in a product
@@ -352,7 +351,7 @@ def _balance(reactants: list[Component], products: list[Component]) -> tuple:
             elif extra == 0:
                 # a reagent left out on the left and a by-product on the right (a hydrolysis:
                 # water in, HCl out)
-                found = _reagent_and_by_product(diff, q, bps, cut, lookup)
+                found = _reagent_and_by_product(diff, q, cut)
             cand = None
             if found:
                 needed = sum(1 for m in found if m.side == "reactant")
@@ -362,7 +361,7 @@ def _balance(reactants: list[Component], products: list[Component]) -> tuple:
     if best is None and _key(drawn):
         # nothing closes it with coefficients: a reagent in and a by-product out even where the
         # difference is all on one side (a reduction drawn without its H2: water out, H2 in)
-        found = _reagent_and_by_product(drawn, drawn_q, bps, cut, lookup)
+        found = _reagent_and_by_product(drawn, drawn_q, cut)
         if found:
             best = (0, len(found), ones, found)
     if best is not None:

@@ -1517,14 +1517,17 @@ def _activator(ctx: Context, comp) -> str | None:
 
 
 def _closes_lactam(mol, nb) -> bool:
-    """The new N-acyl bond of ``nb`` lies in a ring of five to seven atoms of the product."""
-    n = mol.GetAtomWithIdx(nb.product_atom)
+    """The new bond of ``nb`` to a carbonyl carbon lies in a ring of five to seven atoms of the
+    product."""
     for partner in nb.partners:
         bond = mol.GetBondBetweenAtoms(nb.product_atom, partner)
-        if bond is None or not any(o.GetAtomicNum() == 8 and mol.GetBondBetweenAtoms(partner, o.GetIdx()).GetBondTypeAsDouble() == 2
-                                   for o in mol.GetAtomWithIdx(partner).GetNeighbors()):
+        if bond is None or not any(bond.IsInRingSize(k) for k in (5, 6, 7)):
             continue
-        if n.IsInRing() and any(bond.IsInRingSize(k) for k in (5, 6, 7)):
+        carbon = mol.GetAtomWithIdx(partner)
+        if any(
+            o.GetAtomicNum() == 8 and mol.GetBondBetweenAtoms(partner, o.GetIdx()).GetBondType() == Chem.BondType.DOUBLE
+            for o in carbon.GetNeighbors()
+        ):
             return True
     return False
 

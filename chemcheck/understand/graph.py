@@ -43,10 +43,6 @@ class Graph:
     order: dict[tuple[int, int], float]
     bonds: tuple[tuple[int, int, float], ...]  # (begin, end, order) in RDKit's bond order
 
-    @property
-    def heavy(self) -> tuple[int, ...]:
-        return tuple(i for i, z in enumerate(self.z) if z > 1)
-
 
 def _hs(atom: Chem.Atom) -> int:
     try:
