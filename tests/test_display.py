@@ -193,6 +193,28 @@ def test_check_pad_amounts_are_read_back():
     assert "unknown unit" in p.status.value
 
 
+def test_check_pad_edit_relabels_rows_and_keeps_amounts_by_component():
+    # each new widget costs the browser three messages per keystroke: an edit to one component
+    # reuses the rows; an amount stays with the component it was typed for
+    p = chemcheck.pad("CCCCN.CC(=O)Cl>CCN(CC)CC>CCCCNC(C)=O")
+    boxes = p.rows.children
+    p._amount_fields["CCN(CC)CC"].value = "3 mmol"
+    p._amount_fields["CCCCN"].value = "2 mmol"
+    p.reaction.value = "CCCCN.CC(=O)Cl>CCN(C(C)C)C(C)C>CCCCNC(C)=O"
+    p.refresh()
+    assert p.rows.children == boxes  # the same widgets, not new ones
+    assert p.rows.children[2].children[0].value == "agent: CCN(C(C)C)C(C)C"
+    assert p._amount_fields["CCN(C(C)C)C(C)C"].value == ""  # Hünig's base has no amount yet
+    assert p._amount_fields["CCCCN"].value == "2 mmol"
+    assert p._amounts == {"CCN(CC)CC": "3 mmol", "CCCCN": "2 mmol"}  # relabelling is not an edit
+    p.reaction.value = "CCCCN.CC(=O)Cl>CCN(CC)CC>CCCCNC(C)=O"
+    p.refresh()
+    assert p._amount_fields["CCN(CC)CC"].value == "3 mmol"
+    p.reaction.value = "CCCCN.CC(=O)Cl>>CCCCNC(C)=O"
+    p.refresh()
+    assert p.rows.children == boxes[:3] and p.rows.children[2].children[0].value == "product: CCCCNC(C)=O"
+
+
 def test_magic_cell_parsing():
     rxn, amounts = parse_cell("# a note\nCCN.CC(=O)Cl>Et3N>CCNC(C)=O\nCC(=O)Cl = 1.1 equiv\nCCN=2 mmol\n")
     assert rxn == "CCN.CC(=O)Cl>Et3N>CCNC(C)=O"

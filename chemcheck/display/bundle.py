@@ -92,7 +92,6 @@ def payload_with_drawing(report) -> tuple[dict, str | None]:
         "components": [
             {
                 "component": p.component,
-                "svg": p.drawn.svg,
                 "x": p.x,
                 "y": p.y,
                 "width": p.drawn.width,

@@ -44,6 +44,7 @@ class CheckPad:
         self.box = w.VBox([self.reaction, self.status, self.rows, self.record_button, self.output])
         self.box.add_class("cc-pad")
         self._amount_fields: dict[str, object] = {}
+        self._rows: list[_AmountRow] = []
         self._amounts: dict[str, str] = dict(amounts or {})
         self._report = None
         self._pending = None
@@ -108,11 +109,11 @@ class CheckPad:
         except ChemcheckError as exc:
             self._show_error(str(exc))
             return
-        self._sync_rows(rxn)
         amounts = {k: v for k, v in self._amounts.items() if rxn.find(k) is not None}
         try:
             report = check(text, amounts or None)
         except ChemcheckError as exc:
+            self._sync_rows(rxn)
             self._show_error(str(exc))
             return
         self._report = report
@@ -120,45 +121,40 @@ class CheckPad:
         from .present import verdict
 
         bundle = mimebundle(report)
+        # the report first, then the controls around it: the report is what the chemist waits for
+        # (set directly: safe from the debounce thread, no display hooks involved)
+        self.output.outputs = ({"output_type": "display_data", "data": bundle, "metadata": {}},)
         self.status.value = f"<span class='cc-pad-ok'>{escape(verdict(bundle[MIME_TYPE]))}</span>"
+        self._sync_rows(rxn)
         st = report.stoichiometry
         for comp in report.components:
             field = self._amount_fields.get(comp.text)
             if field is None:
                 continue
             row = st.row_for(comp.index) if st is not None else None
-            field._read_label.value = escape(row.read_as) if row is not None and row.read_as else ""
-        # set the outputs directly: safe from the debounce thread, no display hooks involved
-        self.output.outputs = ({"output_type": "display_data", "data": bundle, "metadata": {}},)
+            read = escape(row.read_as) if row is not None and row.read_as else ""
+            if field._read_label.value != read:
+                field._read_label.value = read
 
     def _show_error(self, message: str, error: bool = True) -> None:
         cls = "cc-pad-error" if error else "cc-pad-hint"
         self.status.value = f"<span class='{cls}'>{escape(message)}</span>"
 
     def _sync_rows(self, rxn) -> None:
-        w = self._w
-        wanted = [c.text for c in rxn.components]
-        if wanted == list(self._amount_fields):
+        """One amount row per component, reused by position: an edit to one component's text
+        relabels its row instead of building every row's widgets again (each new widget is
+        three messages to the browser, which the chemist waits for on every keystroke)."""
+        comps = list(rxn.components)
+        if [c.text for c in comps] == list(self._amount_fields) and len(self.rows.children) == len(comps):
             return
-        fields = {}
-        rows = []
-        for comp in rxn.components:
-            field = self._amount_fields.get(comp.text)
-            if field is None:
-                field = w.Text(
-                    value=self._amounts.get(comp.text, ""),
-                    placeholder="e.g. 1.2 mmol, 0.5 g, 2.0 mL, 1.1 equiv",
-                    continuous_update=True,
-                    layout=w.Layout(width="260px"),
-                )
-                field.add_class("cc-pad-amount")
-                field.observe(lambda ch, key=comp.text: self._on_amount(key, ch), names="value")
-                field._read_label = w.HTML(value="")
-            label = w.Label(value=f"{comp.role}: {comp.text}", layout=w.Layout(width="38%"))
-            rows.append(w.HBox([label, field, field._read_label]))
-            fields[comp.text] = field
-        self._amount_fields = fields
-        self.rows.children = rows
+        for i, comp in enumerate(comps):
+            if i == len(self._rows):
+                self._rows.append(_AmountRow(self._w, self._on_amount))
+            self._rows[i].show(comp, self._amounts.get(comp.text, ""))
+        self._amount_fields = {comp.text: self._rows[i].field for i, comp in enumerate(comps)}
+        shown = tuple(r.box for r in self._rows[: len(comps)])
+        if shown != tuple(self.rows.children):
+            self.rows.children = shown
 
     def record(self):
         """Write the current check into the notebook as a durable report output."""
@@ -189,6 +185,39 @@ class CheckPad:
         display(bundle, raw=True)
         # the place where Record writes: an ordinary output of this cell
         self._record_handle = display({"text/plain": "(no check recorded yet: press Record check)"}, raw=True, display_id=True)
+
+
+class _AmountRow:
+    """A component's label, its amount field and how the amount was read."""
+
+    def __init__(self, w, on_amount) -> None:
+        self.key = ""
+        self._quiet = False
+        self.label = w.Label(value="", layout=w.Layout(width="38%"))
+        self.field = w.Text(
+            value="",
+            placeholder="e.g. 1.2 mmol, 0.5 g, 2.0 mL, 1.1 equiv",
+            continuous_update=True,
+            layout=w.Layout(width="260px"),
+        )
+        self.field.add_class("cc-pad-amount")
+        self.field._read_label = w.HTML(value="")
+        self.field.observe(lambda ch: None if self._quiet else on_amount(self.key, ch), names="value")
+        self.box = w.HBox([self.label, self.field, self.field._read_label])
+
+    def show(self, comp, amount: str) -> None:
+        """Point the row at ``comp``; a new component brings its own amount (or none)."""
+        label = f"{comp.role}: {comp.text}"
+        if self.label.value != label:
+            self.label.value = label
+        if self.key != comp.text:
+            self.key = comp.text
+            self._quiet = True  # the amount shown is the component's own, not an edit
+            try:
+                self.field.value = amount
+                self.field._read_label.value = ""
+            finally:
+                self._quiet = False
 
 
 def pad(reaction: str = "", amounts: dict[str, str] | None = None) -> CheckPad:
