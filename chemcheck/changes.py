@@ -11,12 +11,12 @@ and its new neighbours that lie outside the common part are the partner atoms.
 from __future__ import annotations
 
 from dataclasses import dataclass
-from functools import lru_cache
 
 from rdkit import Chem
 from rdkit.Chem import rdFMCS
 
 from . import _rdlog
+from ._memo import Memo
 from .perceive import canonical_key
 from .reading.reaction import Reaction
 
@@ -42,31 +42,45 @@ class NewBond:
     kind_after: str = ""
 
 
-@lru_cache(maxsize=2048)
-def _mcs_map(r_smiles: str, p_smiles: str, avoid: frozenset = frozenset()) -> tuple[tuple[int, int], ...]:
-    """Pairs (reactant atom, product atom) of the closest placement of the reactant's common
-    part in the product, on product atoms outside ``avoid`` (those another reactant holds)."""
-    with _rdlog.captured():
-        r = Chem.MolFromSmiles(r_smiles)
-        p = Chem.MolFromSmiles(p_smiles)
-        if r is None or p is None or r.GetNumAtoms() < 2:
-            return ()
-        frags = Chem.GetMolFrags(r)
-        if len(frags) == 1:
-            return _place(r, p, avoid)
-        # a salt or a hydrate: its largest part is placed (a counter-ion that reaches the
-        # product, the ammonium of NH4SCN, is completed from its neighbours or by the mapper)
-        keep = max(frags, key=lambda f: (sum(1 for i in f if r.GetAtomWithIdx(i).GetAtomicNum() > 1), len(f)))
-        if len(keep) < 2:
-            return ()
-        part = Chem.RWMol(r)
-        for i in sorted(set(range(r.GetNumAtoms())) - set(keep), reverse=True):
-            part.RemoveAtom(i)
-        part = part.GetMol()
-        part.UpdatePropertyCache(strict=False)
-        Chem.FastFindRings(part)
-        back = sorted(keep)
-        return tuple((back[a], b) for a, b in _place(part, p, avoid))
+_PLACED = Memo(2048)  # (reactant SMILES, product SMILES, product atoms held) -> placement
+
+
+def _mcs_map(r_mol: Chem.Mol, r_key: tuple, p_mol: Chem.Mol, p_key: tuple, avoid: frozenset = frozenset()) -> tuple[tuple[int, int], ...]:
+    """Pairs (reactant atom, product atom), both in canonical atom order (``r_key`` and
+    ``p_key`` from :func:`canonical_key`), of the closest placement of the reactant's common
+    part in the product, on product atoms outside ``avoid`` (those another reactant holds).
+    Remembered by the two canonical SMILES, so the answer does not depend on how either was
+    drawn; the molecules are renumbered into that order, not parsed again."""
+    key = (r_key[0], p_key[0], avoid)
+    hit = _PLACED.get(key)
+    if hit is None:
+        with _rdlog.captured():
+            r = Chem.RenumberAtoms(r_mol, r_key[1])
+            p = Chem.RenumberAtoms(p_mol, p_key[1])
+            hit = _PLACED.put(key, _placement(r, p, avoid))
+    return hit
+
+
+def _placement(r: Chem.Mol, p: Chem.Mol, avoid: frozenset) -> tuple[tuple[int, int], ...]:
+    """The placement of ``r`` in ``p``: a salt or hydrate by its largest part."""
+    if r.GetNumAtoms() < 2:
+        return ()
+    frags = Chem.GetMolFrags(r)
+    if len(frags) == 1:
+        return _place(r, p, avoid)
+    # a salt or a hydrate: its largest part is placed (a counter-ion that reaches the
+    # product, the ammonium of NH4SCN, is completed from its neighbours or by the mapper)
+    keep = max(frags, key=lambda f: (sum(1 for i in f if r.GetAtomWithIdx(i).GetAtomicNum() > 1), len(f)))
+    if len(keep) < 2:
+        return ()
+    part = Chem.RWMol(r)
+    for i in sorted(set(range(r.GetNumAtoms())) - set(keep), reverse=True):
+        part.RemoveAtom(i)
+    part = part.GetMol()
+    part.UpdatePropertyCache(strict=False)
+    Chem.FastFindRings(part)
+    back = sorted(keep)
+    return tuple((back[a], b) for a, b in _place(part, p, avoid))
 
 
 def _place(r: Chem.Mol, p: Chem.Mol, avoid: frozenset) -> tuple[tuple[int, int], ...]:
@@ -208,7 +222,7 @@ def _correspondence(reaction: Reaction) -> dict[tuple[int, int], tuple[int, int]
             if rk is None or pk is None:
                 continue
             keys[r.index], keys[p.index] = rk, pk
-            pairs = _mcs_map(rk[0], pk[0])
+            pairs = _mcs_map(r.mol, rk, p.mol, pk)
             if not pairs:
                 continue
             # the canonical SMILES reorders atoms: map back through the canonical ranks
@@ -230,7 +244,7 @@ def _correspondence(reaction: Reaction) -> dict[tuple[int, int], tuple[int, int]
             # anhydride on the new ketone, not on the acetamide already there)
             rk, pk = keys[ri], keys[pi]
             taken = frozenset(c for c, o in enumerate(pk[1]) if (pi, o) in claimed)
-            again = _mcs_map(rk[0], pk[0], taken)
+            again = _mcs_map(reaction.components[ri].mol, rk, reaction.components[pi].mol, pk, taken)
             if len(again) > len(free):
                 free = [(rk[1][a], pk[1][b]) for a, b in again]
             heavy = reaction.components[ri].mol.GetNumHeavyAtoms()

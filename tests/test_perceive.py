@@ -225,6 +225,32 @@ def test_a_reactant_that_loses_a_conflict_is_placed_again_on_free_atoms():
     assert ketone_c and ketone_c[0] in anhydride_atoms
 
 
+def test_a_remembered_placement_follows_each_drawing_of_the_same_molecules():
+    # placements are remembered by canonical SMILES: the second reaction draws the same amine,
+    # acid chloride and amide with other atom orders, and must get its own atoms back
+    # (every pair of corresponding atoms of one element; the amine N onto the amide N)
+    from chemcheck.changes import atom_correspondence, new_bonds_at_nitrogen
+    from chemcheck.reading.reaction import parse_reaction
+
+    for text in (
+        "c1ccc(CCN)cc1.ClC(C)=O>>c1ccccc1CCNC(C)=O",
+        "NCCc1ccccc1.CC(=O)Cl>>CC(=O)NCCc1ccccc1",
+        "C(N)Cc1ccccc1.O=C(Cl)C>>O=C(C)NCCc1ccccc1",
+    ):
+        rxn = parse_reaction(text)
+        corr = atom_correspondence(rxn)
+        assert len(corr) >= 12, text  # 9 heavy atoms of the amine, 3 of the acetyl
+        for (ri, ra), (pi, pa) in corr.items():
+            a = rxn.components[ri].mol.GetAtomWithIdx(ra)
+            b = rxn.components[pi].mol.GetAtomWithIdx(pa)
+            assert a.GetSymbol() == b.GetSymbol(), text
+        amine_n = next(a.GetIdx() for a in rxn.components[0].mol.GetAtoms() if a.GetSymbol() == "N")
+        product_n = next(a.GetIdx() for a in rxn.components[2].mol.GetAtoms() if a.GetSymbol() == "N")
+        assert corr[(0, amine_n)] == (2, product_n), text
+        [nb] = new_bonds_at_nitrogen(rxn)
+        assert nb.reactant == 0 and nb.kind_before == "primary_amine", text
+
+
 @pytest.mark.parametrize(
     "name",
     ["HATU", "HBTU", "TBTU", "COMU", "PyBOP", "T3P", "CDI", "DMTMM", "DIC", "EDC·HCl", "DCC"],

@@ -13,6 +13,8 @@ from dataclasses import dataclass
 
 from rdkit import Chem
 
+from .._memo import Memo
+
 __all__ = ["Graph", "graph_of", "bond_order"]
 
 _AROMATIC = Chem.BondType.AROMATIC
@@ -76,12 +78,20 @@ def build(mol: Chem.Mol) -> Graph:
     )
 
 
+_BY_TEXT = Memo(4096)  # (text as written, SMILES, atoms, bonds) -> Graph
+
+
 def graph_of(comp) -> Graph:
     """The tables of ``comp.mol``, built on first use and kept on the component (rebuilt if its
-    molecule is replaced)."""
+    molecule is replaced). The same text gives the same molecule in the same atom order, so the
+    tables of a solvent or reagent met before are reused."""
+    mol = comp.mol
     hit = comp.__dict__.get("_graph")
-    if hit is not None and hit[0] is comp.mol:
+    if hit is not None and hit[0] is mol:
         return hit[1]
-    g = build(comp.mol)
-    comp.__dict__["_graph"] = (comp.mol, g)
+    key = (comp.text, comp.smiles, mol.GetNumAtoms(), mol.GetNumBonds())
+    g = _BY_TEXT.get(key)
+    if g is None:
+        g = _BY_TEXT.put(key, build(mol))
+    comp.__dict__["_graph"] = (mol, g)
     return g
