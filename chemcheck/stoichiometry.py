@@ -21,6 +21,8 @@ from __future__ import annotations
 
 from dataclasses import dataclass, field
 
+from rdkit import Chem
+
 from .amounts import Amount, parse_amount, validate_amounts
 from .errors import AmountError
 from .reading.reaction import Component, Reaction
@@ -140,12 +142,15 @@ def match_amounts(reaction: Reaction, amounts: dict[str, str]) -> dict[int, str]
     return out
 
 
+_DUMMY = Chem.MolFromSmarts("[#0]")
+
+
 def _mw_known(comp: Component) -> bool:
     """The molar mass means something: finite, positive, and no dummy atom (``*``) in it."""
     mw = comp.mw
     if not (mw == mw and 0 < mw < 1e7):
         return False
-    return all(a.GetAtomicNum() > 0 for a in comp.mol.GetAtoms())
+    return not comp.mol.HasSubstructMatch(_DUMMY)  # one search in C++, not a walk over atoms
 
 
 def _props(comp: Component):
