@@ -163,3 +163,11 @@ def test_verdicts_do_not_depend_on_written_atom_maps():
         same += va == vb
     assert n >= 50
     assert same >= n - 1
+
+
+def test_a_molecule_met_before_in_another_atom_order_is_matched_afresh():
+    # the catalog's answers for a component are remembered per text as written: benzylamine
+    # drawn N-first, then ring-first, puts the nitrogen at another atom index each time
+    first = understanding("NCc1ccccc1.CC(=O)Cl>CCN(CC)CC>CC(=O)NCc1ccccc1")
+    second = understanding("c1ccc(CN)cc1.CC(=O)Cl>CCN(CC)CC>CC(=O)NCc1ccccc1")
+    assert first.class_id == second.class_id == "acylation.acid_halide"

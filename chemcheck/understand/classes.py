@@ -16,6 +16,7 @@ from importlib import resources
 from rdkit import Chem
 
 from .. import _rdlog
+from .._memo import Memo
 from ..reading.reaction import Reaction
 from .centre import BondChange, Centre
 from .graph import graph_of
@@ -113,29 +114,42 @@ def _query(smarts: str) -> Chem.Mol:
     return q
 
 
+_HITS = Memo(2048)  # (text as written, SMILES, atoms, bonds) -> {SMARTS: atoms that fit}
+
+
 class _Matcher:
-    """Answers 'does this origin atom fit this SMARTS', each molecule searched once per SMARTS."""
+    """Answers 'does this origin atom fit this SMARTS', each molecule searched once per SMARTS.
+    The same text gives the same molecule in the same atom order, so the answers for a reagent
+    or building block met before are reused."""
 
     def __init__(self, rxn: Reaction) -> None:
         self._mols = {c.index: c.mol for c in rxn.components}
-        self._hits: dict[tuple[int, str], frozenset[int]] = {}
+        self._hits: dict[int, dict[str, frozenset[int]]] = {}
+        for c in rxn.components:
+            key = (c.text, c.smiles, c.mol.GetNumAtoms(), c.mol.GetNumBonds())
+            table = _HITS.get(key)
+            if table is None:
+                table = _HITS.put(key, {})
+            self._hits[c.index] = table
         # a salt's fragments joined or parted: a product (or reactant) written as several
         # fragments, the amine and its acid
         self.regrouped = any(len(c.fragments) > 1 for c in rxn.products + rxn.reactants)
 
     def fits(self, atom: Atom, smarts: str) -> bool:
-        key = (atom[0], smarts)
-        hits = self._hits.get(key)
+        table = self._hits.get(atom[0])
+        if table is None:
+            return False
+        hits = table.get(smarts)
         if hits is None:
-            mol = self._mols.get(atom[0])
             hits = frozenset()
-            if mol is not None:
-                with _rdlog.captured():
-                    try:
-                        hits = frozenset(m[0] for m in mol.GetSubstructMatches(_query(smarts), maxMatches=10_000))
-                    except RuntimeError:
-                        hits = frozenset()
-            self._hits[key] = hits
+            with _rdlog.captured():
+                try:
+                    hits = frozenset(
+                        m[0] for m in self._mols[atom[0]].GetSubstructMatches(_query(smarts), maxMatches=10_000)
+                    )
+                except RuntimeError:
+                    hits = frozenset()
+            table[smarts] = hits
         return atom[1] in hits
 
 
