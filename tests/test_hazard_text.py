@@ -36,3 +36,14 @@ def test_cyanoborohydride_note_names_hcn_and_plain_hydrides_do_not():
     assert "HCN" in cyano
     plain = " ".join(_notes("O=C1CCCCC1>[BH4-].[Na+].CO>OC1CCCCC1"))
     assert "Hydride reagent" in plain and "HCN" not in plain
+
+
+def test_a_label_that_already_says_the_hazard_class_is_not_repeated():
+    # an unnamed aryl isocyanate is labelled "isocyanate 1" under the scheme
+    notes = _notes("O=C=Nc1cccnc1.CNc1ccccc1>>CN(C(=O)Nc1cccnc1)c1ccccc1")
+    assert [n for n in notes if n.startswith("Isocyanate 1: toxic by inhalation")]
+    assert not [n for n in notes if "Isocyanate (isocyanate" in n]
+    # a named reagent keeps the class before its name
+    named = " ".join(_notes("NCc1ccccc1.CC(=O)Cl>CCN(CC)CC>CC(=O)NCc1ccccc1"))
+    assert "Acid chloride or similar (acetyl chloride (2))" in named
+

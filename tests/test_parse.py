@@ -107,6 +107,7 @@ def test_atom_maps_are_kept_but_not_in_the_canonical_smiles():
         ("HCl in dioxane", "Cl"), ("BF3·OEt2", "CC[O+](CC)[B-](F)(F)F"), ("BF3.OEt2", "CC[O+](CC)[B-](F)(F)F"),
         ("EDC.HCl", "CCN=C=NCCCN(C)C.Cl"), ("BH3.THF", "[BH3-][O+]1CCCC1"),
         ("NaBH(OAc)3", "CC(=O)O[BH-](OC(C)=O)OC(C)=O.[Na+]"), ("hunig's base", "CCN(C(C)C)C(C)C"),
+        ("KHSO4", "O=S(=O)([O-])O.[K+]"), ("sodium bisulfate", "O=S(=O)([O-])O.[Na+]"),
     ],
 )
 def test_common_reagent_names(name, smiles):
@@ -205,3 +206,12 @@ def test_non_ascii_text_is_refused_with_the_character_and_position():
     assert "\u00e9" in str(exc.value)
     with pytest.raises(chemcheck.ParseError):
         chemcheck.check("\u00c2\u00e8\u00a58\U00038d7a\u00bd\x8f")
+
+
+def test_an_acidic_quench_salt_drawn_as_ions_gets_its_name():
+    # potassium hydrogen sulfate, KHSO4, 136.17 g/mol (CRC Handbook of Chemistry and Physics;
+    # from memory), written as its ions among a patent reaction's agents
+    r = parse_reaction("CCN.CC(=O)Cl>O=S(=O)([O-])O.[K+]>CCNC(C)=O")
+    [salt] = [c for c in r.components if c.role == "agent"]
+    assert salt.name == "potassium hydrogen sulfate"
+    assert abs(salt.mw - 136.17) < 0.02

@@ -124,6 +124,10 @@ def test_free_aniline_with_alcl3_is_one_error_with_both_reasons():
         ("Cc1ccc2[nH]ccc2c1.CC(=O)Cl>Cl[Al](Cl)Cl>", "indole 1"),
         ("Cc1cccc(O)c1.CC(=O)Cl>>", "phenol 1"),
         ("Cc1ccncc1C.CI>>", "pyridine 1"),
+        # a sulfonic acid is named by its acid, before the ketone or ring it carries
+        # (camphorsulfonic acid; dodecylbenzenesulfonic acid; common practice)
+        ("CC1(C)C2CCC1(CS(=O)(=O)O)C(=O)C2.CCN>>", "sulfonic acid 1"),
+        ("CCCCCCCCCCCCc1ccccc1S(=O)(=O)O.O=P(Cl)(Cl)Cl>>", "sulfonic acid 1"),
     ],
 )
 def test_an_unnamed_compound_is_named_by_its_ring_system_or_group(reaction, label):

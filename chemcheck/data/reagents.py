@@ -75,6 +75,9 @@ REAGENTS: tuple[tuple[tuple[str, ...], str, str], ...] = (
     (("phosphoric acid", "H3PO4"), "OP(=O)(O)O", "acid"),
     (("pyridinium p-toluenesulfonate", "PPTS"), "c1cc[nH+]cc1.Cc1ccc(cc1)S(=O)(=O)[O-]", "acid"),
     (("ammonium chloride", "NH4Cl"), "[NH4+].[Cl-]", "acid"),
+    # the acidic quench of a work-up
+    (("sodium hydrogen sulfate", "sodium bisulfate", "NaHSO4"), "[Na+].OS(=O)(=O)[O-]", "acid"),
+    (("potassium hydrogen sulfate", "potassium bisulfate", "KHSO4"), "[K+].OS(=O)(=O)[O-]", "acid"),
     (("ammonium acetate", "NH4OAc"), "[NH4+].CC([O-])=O", "reagent"),
     # Lewis acids
     (("aluminium chloride", "aluminum chloride", "AlCl3"), "Cl[Al](Cl)Cl", "lewis_acid"),

@@ -1711,5 +1711,11 @@ def hazard_caution(ctx: Context):
         comps = found.get(cls)
         if not comps:
             continue
-        names = ", ".join(dict.fromkeys(c.label for c in comps))
-        yield r.finding(text.format(names=names, gas=_gas(comps)) + " " + SAFETY, atoms=[], fix=SAFETY)
+        labels = list(dict.fromkeys(c.label for c in comps))
+        names = ", ".join(labels)
+        heading, _, rest = text.partition(" ({names})")
+        if rest and all(x.casefold().startswith(heading.casefold() + " ") for x in labels):
+            # the labels already say what it is ("isocyanate 1"): not "Isocyanate (isocyanate 1)"
+            text = "{cap}" + rest
+        message = text.format(names=names, cap=names[:1].upper() + names[1:], gas=_gas(comps))
+        yield r.finding(message + " " + SAFETY, atoms=[], fix=SAFETY)
