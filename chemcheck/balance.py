@@ -39,7 +39,7 @@ BY_PRODUCTS: tuple[tuple[str, str], ...] = (
     ("NaI", "[Na+].[I-]"), ("KI", "[K+].[I-]"), ("AgI", "[Ag]I"), ("AgBr", "[Ag]Br"), ("AgCl", "[Ag]Cl"),
     ("H2SO4", "OS(=O)(=O)O"), ("HNO3", "O[N+](=O)[O-]"), ("benzyl alcohol", "OCc1ccccc1"),
     ("phenol", "Oc1ccccc1"), ("p-nitrophenol", "Oc1ccc(cc1)[N+](=O)[O-]"), ("HOBt", "On1nnc2ccccc21"),
-    ("N-hydroxysuccinimide", "O=C1CCC(=O)N1O"),
+    ("N-hydroxysuccinimide", "O=C1CCC(=O)N1O"), ("toluene", "Cc1ccccc1"),
 )
 
 
@@ -192,6 +192,14 @@ def _coefficient_sets(n: int) -> tuple[tuple[int, ...], ...]:
     return tuple(sorted(itertools.product(*ranges), key=sum))
 
 
+# Hydrogen or a hydrogenation catalyst or hydride in the flask: where H2 and another reagent
+# (water) both close the equation, H2 is the one meant (a benzyl group leaves as toluene under
+# hydrogenolysis, as benzyl alcohol on hydrolysis; common practice).
+_REDUCING = Chem.MolFromSmarts("[$([H][H]),$([#1-]),Pd,Pt,Ni,Rh,Ru,Ir,$([#5,#13,#14;!H0])]")
+# a benzyl group leaves as toluene only by hydrogenolysis
+_HYDROGENOLYSIS_ONLY = frozenset({"toluene"})
+
+
 _COUNTS = Memo()
 
 
@@ -220,23 +228,29 @@ def balance(reaction: Reaction) -> Balance:
         same = next((c for c in reaction.agents if c.smiles == prod.smiles and c not in reactants), None)
         if same is not None:
             reactants.append(same)
-    key = (tuple(c.smiles for c in reactants), tuple(c.smiles for c in products))
+    reducing = any(c.mol.HasSubstructMatch(_REDUCING) for c in reaction.reactants + reaction.agents)
+    key = (tuple(c.smiles for c in reactants), tuple(c.smiles for c in products), reducing)
     hit = _BALANCED.get(key)
     if hit is None:
-        hit = _BALANCED.put(key, _balance(reactants, products))
+        hit = _BALANCED.put(key, _balance(reactants, products, reducing))
     drawn_ok, ok, coeffs, missing, residual, charge = hit
     species = reactants + products
     return Balance(drawn_ok, ok, {c.index: k for c, k in zip(species, coeffs)}, list(missing), dict(residual), charge)
 
 
-def _reagent_and_by_product(diff: Counter, q: int, cut) -> list[Missing] | None:
-    for name, formula, k, options in _reagent_candidates(_key(diff), q):
+def _reagent_and_by_product(diff: Counter, q: int, cut, reducing: bool = False) -> list[Missing] | None:
+    candidates = _reagent_candidates(_key(diff), q)
+    if reducing:
+        candidates = sorted(candidates, key=lambda c: c[0] != "H2")  # stable: H2 first, then as listed
+    for name, formula, k, options in candidates:
         right = None
         for found in options:
             if all(cut(m.name, "product") for m in found):
                 right = [Missing(m.name, m.formula, m.count, "product") for m in found]
                 break
-        if right and len(right) == 1 and cut(name, "reactant"):
+        # one by-product; two under hydrogenolysis (a Cbz group leaves as toluene and CO2)
+        two = reducing and name == "H2" and k == 1 and any(m.name == "toluene" for m in right or ())
+        if right and (len(right) == 1 or two) and cut(name, "reactant"):
             return [Missing(name, formula, k, "reactant"), *right]
     return None
 
@@ -293,7 +307,7 @@ def _spectator_salt(reactants, vectors, charges, drawn: Counter, drawn_q: int, l
     return None
 
 
-def _balance(reactants: list[Component], products: list[Component]) -> tuple:
+def _balance(reactants: list[Component], products: list[Component], reducing: bool = False) -> tuple:
     species: list[tuple[Component, int]] = [(c, 1) for c in reactants] + [(c, -1) for c in products]
     vectors = [counts_of(c) for c, _ in species]
     charges = [Chem.GetFormalCharge(c.mol) for c, _ in species]
@@ -322,7 +336,10 @@ def _balance(reactants: list[Component], products: list[Component]) -> tuple:
     def cut(name: str, side: str) -> bool:
         hit = cuts.get((name, side))
         if hit is None:
-            hit = cuts[(name, side)] = _cut_from(name, sources[side], side)
+            if name in _HYDROGENOLYSIS_ONLY and not reducing:
+                hit = cuts[(name, side)] = False
+            else:
+                hit = cuts[(name, side)] = _cut_from(name, sources[side], side)
         return hit
 
     def lookup(vec: Counter, q: int, side: str) -> list[Missing] | None:
@@ -351,7 +368,7 @@ def _balance(reactants: list[Component], products: list[Component]) -> tuple:
             elif extra == 0:
                 # a reagent left out on the left and a by-product on the right (a hydrolysis:
                 # water in, HCl out)
-                found = _reagent_and_by_product(diff, q, cut)
+                found = _reagent_and_by_product(diff, q, cut, reducing)
             cand = None
             if found:
                 needed = sum(1 for m in found if m.side == "reactant")
@@ -361,7 +378,7 @@ def _balance(reactants: list[Component], products: list[Component]) -> tuple:
     if best is None and _key(drawn):
         # nothing closes it with coefficients: a reagent in and a by-product out even where the
         # difference is all on one side (a reduction drawn without its H2: water out, H2 in)
-        found = _reagent_and_by_product(drawn, drawn_q, cut)
+        found = _reagent_and_by_product(drawn, drawn_q, cut, reducing)
         if found:
             best = (0, len(found), ones, found)
     if best is not None:

@@ -151,3 +151,31 @@ def test_an_exhaustive_methylation_to_the_quaternary_salt_takes_three_methyl_iod
     b, got = missing("CC(CCC)N.CI>>C[N+](C)(C)C(C)CCC.[I-]")
     assert b.coefficients[1] == 3
     assert got == [("HI", 2, "product")]
+
+
+@pytest.mark.parametrize(
+    "reaction,expected",
+    [
+        # hydrogenolysis of a Cbz group: the amine, CO2 and toluene (P. G. M. Wuts, Greene's
+        # Protective Groups in Organic Synthesis, 5th ed., Wiley 2014, benzyl carbamate)
+        # (the H2 written among the agents is the reagent the equation needs)
+        (
+            "O=C(OCc1ccccc1)NCCc1ccccc1>[H][H].[Pd].CO>NCCc1ccccc1",
+            [("CO2", 1, "product"), ("H2", 1, "reactant"), ("toluene", 1, "product")],
+        ),
+        # of a benzyl ether with palladium, H2 not written: the phenol and toluene, H2 needed
+        # (same source, benzyl ether)
+        ("COc1ccc(OCc2ccccc2)cc1>[Pd].CO>COc1ccc(O)cc1", [("H2", 1, "reactant"), ("toluene", 1, "product")]),
+    ],
+)
+def test_a_benzyl_group_leaves_as_toluene_under_hydrogenolysis(reaction, expected):
+    b, got = missing(reaction)
+    assert b.balanced
+    assert got == expected
+
+
+def test_toluene_is_not_offered_without_a_reductant():
+    # the same ether cleaved without hydrogen or a hydrogenation catalyst: toluene would need H2
+    # that nothing in the flask supplies
+    _, got = missing("COc1ccc(OCc2ccccc2)cc1>ClCCl>COc1ccc(O)cc1")
+    assert ("toluene", 1, "product") not in got

@@ -42,7 +42,9 @@ def unbalanced_equation(ctx: Context):
         A drawn equation whose elements or charge differ between the two sides. When one or
         two common small molecules close the gap (HCl from an acylation, water from a
         condensation, CO2 and tert-butanol from a Boc protection, H2 in and water out of a
-        reductive amination, the salt of a base written among the reactants), it names them;
+        reductive amination, toluene (and CO2 from a Cbz group) from a benzyl group removed
+        over a hydrogenation catalyst, the salt of a base written among the reactants), it
+        names them;
         otherwise it gives the element difference. An organic by-product is named only when
         a reactant holds it (methanol from a methyl ester, not from nowhere), so a product
         drawn a carbon short shows as a difference rather than as a made-up by-product. A
