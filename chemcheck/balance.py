@@ -40,6 +40,7 @@ BY_PRODUCTS: tuple[tuple[str, str], ...] = (
     ("H2SO4", "OS(=O)(=O)O"), ("HNO3", "O[N+](=O)[O-]"), ("benzyl alcohol", "OCc1ccccc1"),
     ("phenol", "Oc1ccccc1"), ("p-nitrophenol", "Oc1ccc(cc1)[N+](=O)[O-]"), ("HOBt", "On1nnc2ccccc21"),
     ("N-hydroxysuccinimide", "O=C1CCC(=O)N1O"), ("toluene", "Cc1ccccc1"),
+    ("trimethylsilanol", "C[Si](C)(C)O"), ("chloride", "[Cl-]"), ("bromide", "[Br-]"), ("iodide", "[I-]"),
 )
 
 
@@ -176,9 +177,11 @@ def _by_product_table() -> dict[frozenset, list[list[Missing]]]:
         for k in (1, 2, 3):
             singles.append(((name, formula, k), Counter({e: n * k for e, n in vec.items()}), q * k))
     for info, vec, q in singles:
+        if info[0] in _IONS and info[2] > 1:
+            continue
         table.setdefault(_key(vec) | {("__q", q)}, []).append([Missing(info[0], info[1], info[2], "product")])
     for (a, va, qa), (b, vb, qb) in itertools.combinations(singles, 2):
-        if a[0] == b[0] or a[2] > 2 or b[2] > 2:
+        if a[0] == b[0] or a[2] > 2 or b[2] > 2 or a[0] in _IONS or b[0] in _IONS:
             continue
         key = _key(va + vb) | {("__q", qa + qb)}
         table.setdefault(key, []).append([Missing(a[0], a[1], a[2], "product"), Missing(b[0], b[1], b[2], "product")])
@@ -196,6 +199,9 @@ def _coefficient_sets(n: int) -> tuple[tuple[int, ...], ...]:
 # (water) both close the equation, H2 is the one meant (a benzyl group leaves as toluene under
 # hydrogenolysis, as benzyl alcohol on hydrolysis; common practice).
 _REDUCING = Chem.MolFromSmarts("[$([H][H]),$([#1-]),Pd,Pt,Ni,Rh,Ru,Ir,$([#5,#13,#14;!H0])]")
+# halide ions: the leaving group of a substitution by an anion drawn without its counter-ion
+# (cyanide, azide, a sulfinate); alone and once, never combined with other by-products
+_IONS = frozenset({"chloride", "bromide", "iodide"})
 # a benzyl group leaves as toluene only by hydrogenolysis
 _HYDROGENOLYSIS_ONLY = frozenset({"toluene"})
 
@@ -245,6 +251,8 @@ def _reagent_and_by_product(diff: Counter, q: int, cut, reducing: bool = False) 
     for name, formula, k, options in candidates:
         right = None
         for found in options:
+            if any(m.name in _IONS for m in found):
+                continue  # a halide ion leaves alone, from an anion that substitutes it
             if all(cut(m.name, "product") for m in found):
                 right = [Missing(m.name, m.formula, m.count, "product") for m in found]
                 break
@@ -370,6 +378,8 @@ def _balance(reactants: list[Component], products: list[Component], reducing: bo
                 # water in, HCl out)
                 found = _reagent_and_by_product(diff, q, cut, reducing)
             cand = None
+            if found and extra and any(m.name in _IONS for m in found):
+                found = None  # a halide ion only as drawn, never with coefficients
             if found:
                 needed = sum(1 for m in found if m.side == "reactant")
                 cand = (extra + len(found) + 0.5 * needed, len(found), coeffs, found)

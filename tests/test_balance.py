@@ -27,6 +27,10 @@ def missing(text):
         ("CCCCN.O=Cc1ccccc1>>CCCCN=Cc1ccccc1", [("H2O", 1, "product")]),
         ("CCCCN.Cc1ccc(cc1)S(Cl)(=O)=O>>CCCCNS(=O)(=O)c1ccc(C)cc1", [("HCl", 1, "product")]),
         ("CC(=O)Cl>>CC(=O)O", [("H2O", 1, "reactant"), ("HCl", 1, "product")]),
+        # an SN2 by cyanide drawn without its counter-ion releases bromide; a trimethylsilyl
+        # ether hydrolysed gives the alcohol and trimethylsilanol (common practice)
+        ("CCCCBr.[C-]#N>>CCCCC#N", [("bromide", 1, "product")]),
+        ("C[Si](C)(C)OCCCC>>OCCCC", [("H2O", 1, "reactant"), ("trimethylsilanol", 1, "product")]),
     ],
 )
 def test_missing_by_products_are_named(reaction, expected):
@@ -179,3 +183,45 @@ def test_toluene_is_not_offered_without_a_reductant():
     # that nothing in the flask supplies
     _, got = missing("COc1ccc(OCc2ccccc2)cc1>ClCCl>COc1ccc(O)cc1")
     assert ("toluene", 1, "product") not in got
+
+
+def _balance_notes(text):
+    return [f.message for f in chemcheck.check(text).by_rule("unbalanced-equation")]
+
+
+@pytest.mark.parametrize(
+    "reaction",
+    [
+        # a Grignard addition drawn as the organomagnesium cation with bromide among the agents,
+        # quenched with aqueous NH4Cl: Mg and Br leave as salts, the water gives the OH its H
+        # (common practice)
+        "CC(=O)c1ccccc1.[CH3][Mg+]>C1CCOC1.[Br-].[NH4+].[Cl-]>CC(C)(O)c1ccccc1",
+        # Suzuki couplings: the boron leaves as borate with the halide (N. Miyaura, A. Suzuki,
+        # Chem. Rev. 1995, 95, 2457), and a pinacol boronate's pinacol with it
+        "OB(O)c1ccccc1.Brc1ccc(C)cc1>[Pd].O=C([O-])[O-].[K+].[K+]>Cc1ccc(-c2ccccc2)cc1",
+        "CC1(C)OB(c2ccccc2)OC1(C)C.Brc1ccc(C)cc1>[Pd].O=C([O-])[O-].[K+].[K+]>Cc1ccc(-c2ccccc2)cc1",
+        # oxidations with the oxidant among the agents: Swern (K. Omura, D. Swern, Tetrahedron
+        # 1978, 34, 1651) and Dess-Martin (D. B. Dess, J. C. Martin, J. Org. Chem. 1983, 48, 4155)
+        "OC1CCCCC1>CS(C)=O.O=C(Cl)C(=O)Cl.CCN(CC)CC>O=C1CCCCC1",
+        "OC1CCCCC1>CC(=O)OI1(OC(C)=O)(OC(C)=O)OC(=O)c2ccccc21>O=C1CCCCC1",
+    ],
+)
+def test_what_the_agents_supply_or_the_workup_takes_is_not_asked_for(reaction):
+    assert _balance_notes(reaction) == []
+
+
+def test_a_coupling_product_drawn_a_carbon_short_is_still_named():
+    # the organic part does not balance: the remainder is not only salts
+    [note] = _balance_notes("OB(O)c1ccccc1.Brc1ccc(C)cc1>[Pd].O=C([O-])[O-].[K+].[K+]>c1ccc(-c2ccccc2)cc1")
+    assert "C +1" in note and "B +1" in note
+
+
+def test_an_oxidation_without_an_oxidant_is_named():
+    [note] = _balance_notes("OC1CCCCC1>ClCCl>O=C1CCCCC1")
+    assert note.endswith("is H +2.")
+
+
+def test_a_halide_ion_is_not_offered_beside_another_reagent():
+    # thiocyanate adding to an amine gains a proton from the medium: not "HCl in, chloride out"
+    b, got = missing("N#C[S-].Nc1ccccc1>>NC(=S)Nc1ccccc1")
+    assert not b.balanced and got == []

@@ -2,6 +2,8 @@
 
 from __future__ import annotations
 
+from rdkit import Chem
+
 from ..balance import Missing
 from . import Context, rule
 
@@ -34,6 +36,75 @@ def _among_agents(ctx: Context, missing) -> bool:
     return False
 
 
+# Oxidants that take up the hydrogen an oxidation removes (their reduced forms are not drawn in
+# a scheme): peroxides, peracids, Oxone and O2; hypervalent iodine (Dess-Martin periodinane,
+# IBX, periodate); metal-oxo oxidants (permanganate, chromium(VI), MnO2, TPAP, OsO4, SeO2);
+# amine N-oxides (NMO); hypochlorite and chlorite; nitroxyl radicals (TEMPO); quinones (DDQ,
+# chloranil); cerium(IV). Common practice (M. B. Smith, March's Advanced Organic Chemistry,
+# 8th ed., Wiley 2020, ch. 19).
+_OXIDANTS = tuple(
+    Chem.MolFromSmarts(s)
+    for s in (
+        "[#8]~[#8]",
+        "[#53;X2,X3,X4,X5,X6]",
+        "[Mn,Cr,Os,Ru,Se,Re,V]~[OX1,OX1-]",
+        "[NX4+][OX1-]",
+        "[Cl,Br;X1,X2,X3]~[OX1-,OX2H1,OX1]",
+        "[OX1;H0;+0;v1]-[NX3]",
+        "O=C1C=CC(=O)C=C1",
+        "[Ce]",
+    )
+)
+# dimethyl sulfoxide with an activator (Swern, Parikh-Doering, Pfitzner-Moffatt, Albright-
+# Goldman): oxalyl chloride, TFAA, SO3-pyridine, a carbodiimide, acetic anhydride
+_DMSO = Chem.MolFromSmarts("[CH3][SX3](=O)[CH3]")
+_DMSO_ACTIVATORS = tuple(
+    Chem.MolFromSmarts(s)
+    for s in (
+        "O=C(Cl)C(=O)Cl", "O=C(OC(=O)C(F)(F)F)C(F)(F)F", "[SX4](=O)(=O)[n+,N+]", "O=S(=O)=O",
+        "N=C=N", "[CH3]C(=O)OC(=O)[CH3]",
+    )
+)
+
+
+def _oxidant_present(ctx: Context) -> bool:
+    comps = ctx.reaction.reactants + ctx.reaction.agents
+    if any(c.mol.HasSubstructMatch(q) for c in comps for q in _OXIDANTS):
+        return True
+    return any(c.mol.HasSubstructMatch(_DMSO) for c in comps) and any(
+        c.mol.HasSubstructMatch(q) for c in comps for q in _DMSO_ACTIVATORS
+    )
+
+
+# what leaves as inorganic salts at the work-up: the metal of an organometallic reagent, the
+# boron of a boronic acid (as borate), halides; water and protons of the quench make up H and O
+_INORGANIC = frozenset({"Li", "Na", "K", "Cs", "Mg", "Zn", "Cu", "Al", "B", "Sn", "F", "Cl", "Br", "I"})
+_LEAVING_METALS = frozenset({"Li", "Na", "K", "Cs", "Mg", "Zn", "Cu", "Al", "B", "Sn"})
+_PINACOL_BORONATE = Chem.MolFromSmarts("B1OC(C)(C)C(C)(C)O1")
+
+
+def _left_at_workup(ctx: Context, residual: dict[str, int]) -> bool:
+    """The organic part balances and what is left over is a metal or boron and its halide (with
+    water or protons): a Grignard or organolithium addition quenched with water, a boronic acid
+    or pinacol boronate coupled (the pinacol leaves with the boron)."""
+    rest = {e: n for e, n in residual.items() if n}
+    pinacols = sum(len(c.mol.GetSubstructMatches(_PINACOL_BORONATE)) for c in ctx.reaction.reactants)
+    if pinacols and rest.get("B", 0) > 0 and rest.get("C", 0) > 0:
+        k = rest["C"] // 6
+        if rest["C"] % 6 or k > min(pinacols, rest["B"]):
+            return False
+        for e, n in (("C", 6), ("H", 14), ("O", 2)):
+            rest[e] = rest.get(e, 0) - k * n
+        rest = {e: n for e, n in rest.items() if n}
+    leaving = {e: n for e, n in rest.items() if e not in ("H", "O")}
+    return (
+        bool(leaving)
+        and set(leaving) <= _INORGANIC
+        and all(n > 0 for n in leaving.values())
+        and bool(set(leaving) & _LEAVING_METALS)
+    )
+
+
 @rule(id="unbalanced-equation", title="Equation does not balance as drawn", severity="info")
 def unbalanced_equation(ctx: Context):
     """Compare the elements and charge of the reactants with those of the products.
@@ -48,7 +119,10 @@ def unbalanced_equation(ctx: Context):
         otherwise it gives the element difference. An organic by-product is named only when
         a reactant holds it (methanol from a methyl ester, not from nowhere), so a product
         drawn a carbon short shows as a difference rather than as a made-up by-product. A
-        reagent the agents supply (H2 over Pd, or a borohydride for H2) is not asked for, and an
+        reagent the agents supply (H2 over Pd, or a borohydride for H2; an oxidant for the
+        hydrogen an oxidation removes) is not asked for, nor are the inorganic salts left at
+        the work-up (the magnesium or lithium of an organometallic addition, the boron of a
+        boronic acid or pinacol boronate with the halide of a coupling), and an
         agent that is the same molecule as a product (the TFA of a salt written beside the
         product, HCl that ends as the hydrochloride) enters the equation as its source.
 
@@ -97,6 +171,12 @@ def unbalanced_equation(ctx: Context):
         fix = "To balance the equation, " + " and ".join(fixes) + "."
         yield r.finding(message, fix=fix)
         return
+    hydrogen_only = {e: n for e, n in b.residual.items() if n} == {"H": b.residual.get("H", 0)}
+    if hydrogen_only and b.residual["H"] > 0 and b.residual["H"] % 2 == 0 and not b.charge_difference:
+        if _oxidant_present(ctx):
+            return  # an oxidation: the oxidant among the agents takes up the hydrogen
+    if _left_at_workup(ctx, b.residual):
+        return  # the metal or boron and its halide leave as salts at the work-up
     diff = ", ".join(f"{el} {'+' if n > 0 else ''}{n}" for el, n in b.residual.items())
     message = (
         f"The equation does not balance: reactants minus products is {diff or 'none'}"
