@@ -232,6 +232,7 @@ _RING_WORDS = tuple(
     (Chem.MolFromSmarts(sm), word)
     for sm, word in (
         ("[C-]#N", "cyanide"),
+        ("[#1-,$([B-,Al-;!H0])]", "hydride"),
         ("[Li+,Na+,K+,Rb+,Cs+,Mg+2,Ca+2,Zn+2,Ba+2]", "metal ion"),
         ("[N-]=[N+]=[N-]", "azide"),
         ("[O-][N]=O", "nitrite"),

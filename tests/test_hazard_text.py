@@ -47,3 +47,45 @@ def test_a_label_that_already_says_the_hazard_class_is_not_repeated():
     named = " ".join(_notes("NCc1ccccc1.CC(=O)Cl>CCN(CC)CC>CC(=O)NCc1ccccc1"))
     assert "Acid chloride or similar (acetyl chloride (2))" in named
 
+
+
+def test_a_cyanide_salt_is_kept_basic_and_cyanoborohydride_buffered():
+    # HCN, pKa 9.2 (CRC Handbook of Chemistry and Physics; from memory), is most of the cyanide
+    # below pH 9: a cyanide salt is kept basic, a cyanoborohydride reduction runs at pH 5-7
+    # with acetic acid (Borch, Bernstein & Durst, J. Am. Chem. Soc. 1971, 93, 2897)
+    [salt] = chemcheck.check("CCCCBr.[C-]#N.[Na+]>CS(C)=O.OS(=O)(=O)O>CCCCC#N").by_rule("hazardous-species-formed")
+    assert "basic" in salt.fix and "pH 5" not in salt.fix and salt.severity == "warning"
+    [boro] = chemcheck.check("O=Cc1ccccc1.C1CCNCC1>[Na+].[BH3-]C#N.CO.CC(=O)O>C(c1ccccc1)N1CCCCC1").by_rule(
+        "hazardous-species-formed"
+    )
+    assert "pH 5" in boro.fix and boro.severity == "info"
+
+
+def test_a_peroxide_gets_peroxide_advice_not_nitration_advice():
+    # peracids: test for and quench the excess before concentrating (Prudent Practices in the
+    # Laboratory, National Research Council, 2011)
+    notes = " ".join(_notes("CSc1ccccc1>OOC(=O)c1cccc(Cl)c1.ClCCl>CS(=O)(=O)c1ccccc1"))
+    assert "Peroxide" in notes and "quench" in notes and "nitration" not in notes
+
+
+def test_borohydride_with_a_cobalt_salt_is_not_called_slow():
+    # the cobalt boride formed catalyses the hydrolysis of NaBH4 (T. Satoh, S. Suzuki, Tetrahedron
+    # Lett. 1969, 10, 4555; from memory)
+    [note] = _notes("N#CCc1ccccc1>[Na+].[BH4-].[Co+2].[Cl-].[Cl-].CO>NCCc1ccccc1", "reactive-reagent-in-protic-solvent")
+    assert "cobalt" in note and "quickly" in note and "slowly" not in note
+    [plain] = _notes("CC(=O)c1ccccc1>[BH4-].[Na+].CO>CC(O)c1ccccc1", "reactive-reagent-in-protic-solvent")
+    assert "slowly" in plain
+
+
+def test_lithium_aluminium_hydride_written_as_ions_is_named_and_supplies_the_hydrogen():
+    report = chemcheck.check("CCOC(=O)c1ccccc1>[H-].[H-].[H-].[H-].[Li+].[Al+3].C1CCOC1>OCc1ccccc1")
+    assert any(c.label.startswith("lithium aluminium hydride") for c in report.reaction.components)
+    assert not [f for f in report.by_rule("unbalanced-equation") if "H2" in f.message]
+
+
+def test_an_unnamed_acid_is_not_called_the_carboxylic_acid_acid():
+    # HOBt with no coupling agent and 1,2-dichloroethane listed: "EDC" read as the solvent
+    [f] = chemcheck.check(
+        "OC(=O)c1ccc(C)cc1C.NCc1ccccc1>On1nnc2ccccc21.ClCCCl.CN(C)C=O>O=C(NCc1ccccc1)c1ccc(C)cc1C"
+    ).by_rule("amide-from-unactivated-acid")
+    assert "acid acid" not in f.message and "EDC" in f.message

@@ -146,6 +146,8 @@ REAGENTS: tuple[tuple[tuple[str, ...], str, str], ...] = (
     (("sodium triacetoxyborohydride", "NaBH(OAc)3", "STAB"), "[Na+].CC(=O)O[BH-](OC(C)=O)OC(C)=O", "reductant"),
     (("sodium cyanoborohydride", "NaBH3CN", "NaCNBH3"), "[Na+].[BH3-]C#N", "reductant"),
     (("lithium aluminium hydride", "lithium aluminum hydride", "LiAlH4", "LAH"), "[Li+].[AlH4-]", "reductant"),
+    # the same, written as separate ions (as reaction records often give it)
+    (("lithium aluminium hydride",), "[Li+].[Al+3].[H-].[H-].[H-].[H-]", "reductant"),
     (("diisobutylaluminium hydride", "DIBAL", "DIBAL-H", "DIBALH"), "CC(C)C[AlH]CC(C)C", "reductant"),
     (("borane-THF complex", "BH3·THF", "BH3-THF"), "[BH3-][O+]1CCCC1", "reductant"),
     (("hydrogen", "H2"), "[H][H]", "reductant"),

@@ -23,6 +23,7 @@ def _verb(items: list[Missing]) -> str:
 
 
 _REDUCTANT_GROUPS = ("dihydrogen", "boron_hydride", "aluminium_hydride")
+_AL_B = Chem.MolFromSmarts("[Al,B]")
 
 
 def _among_agents(ctx: Context, missing) -> bool:
@@ -33,6 +34,8 @@ def _among_agents(ctx: Context, missing) -> bool:
             return True
         if missing.formula == "H2" and ctx.perception(comp).has(*_REDUCTANT_GROUPS):
             return True
+        if missing.formula == "H2" and ctx.perception(comp).has("hydride_ion") and comp.mol.HasSubstructMatch(_AL_B):
+            return True  # LiAlH4 or NaBH4 written as separate ions
     return False
 
 

@@ -37,6 +37,8 @@ _RELEASED = {
     "organolithium or Grignard reagent": "the alkane or arene", "metal amide base": "the free amine",
 }
 _BOROHYDRIDE = "[BH4-]"
+_BORIDE_METAL = "[Co,Ni,Cu]"
+_METAL_NAMES = {"Co": "cobalt", "Ni": "nickel", "Cu": "copper"}
 _WORKUP = (
     "[$([OX1H1-]),$([SX4](=O)(=O)([OX1-])[OX1-]),$([CX3](=O)([#6])[OX1-]),$([NX4H4+]),$([Cl-,Br-]),"
     "$([CX3](=O)([OX1-])[OX1-,OX2H1])]"
@@ -147,7 +149,8 @@ def reactive_reagent_in_protic_solvent(ctx: Context):
     first_label: dict[str, str] = {}
     for c, _ in protic:
         first_label.setdefault(c.smiles, c.label)
-    words = " and ".join(first_label.values())
+    labels = list(first_label.values())
+    words = labels[0] if len(labels) == 1 else ", ".join(labels[:-1]) + " and " + labels[-1]
     violent = [(c, _violent_reagent(c)) for c in pool]
     violent = [(c, hit) for c, hit in violent if hit is not None]
     if violent and not aprotic and not (only_water and workup):
@@ -167,6 +170,26 @@ def reactive_reagent_in_protic_solvent(ctx: Context):
             continue
         bh4 = _frag_has(comp, _BOROHYDRIDE)
         if bh4 and not aprotic and any(w in ("alcohol", "water") for _, w in protic):
+            others = [c for c in pool if c is not comp]
+            metal = _any(others, _BORIDE_METAL)
+            acid = _any(others, _ACIDS[0][1]) or _any(others, _ACIDS[1][1])
+            if metal or acid:
+                # the boride formed from a cobalt, nickel or copper salt catalyses the hydrolysis of
+                # the borohydride; an acid protonates it (both: fast hydrogen evolution, common practice)
+                if metal:
+                    element = _METAL_NAMES[metal[0].mol.GetAtomWithIdx(metal[1]).GetSymbol()]
+                    salt = metal[0].label if element in metal[0].label else f"the {element} salt ({metal[0].label})"
+                    why = f"{salt} gives a black boride that makes the borohydride react fast with the solvent"
+                else:
+                    why = f"{acid[0].label}, an acid, protonates the borohydride"
+                yield r.finding(
+                    f"{comp.label} with {words}: {why}, releasing hydrogen quickly with heat and foaming. " + SAFETY,
+                    atoms=[(comp.index, bh4[0])],
+                    fix="Add the borohydride in small portions at 0 °C with good venting and room for foam, and "
+                    "allow for the reagent lost to the solvent.",
+                    severity="info",
+                )
+                continue
             yield r.finding(
                 f"{comp.label} with {words}: normal practice. The borohydride decomposes slowly in the solvent, "
                 "releasing hydrogen; add it in portions, cold, in a vented vessel, and use a small excess. " + SAFETY,
@@ -398,15 +421,31 @@ def hazardous_species_formed(ctx: Context):
             # acetic acid buffers a cyanoborohydride reduction at pH 5-7; an ammonium salt or an
             # acid beside a base in the list leaves a cyanide solution near or above pH 9
             mild = (borohydride and word != "a strong acid") or word == "an ammonium salt" or based
+            if borohydride:
+                how = " in small amounts at the pH of a reductive amination (about 5–7)" if mild else ""
+                fix = (
+                    "Keep the mixture at pH 5 or above (acetic acid, not a strong acid), work in a fume hood, and "
+                    "treat cyanide-containing waste with basic hypochlorite; NaBH(OAc)3 avoids cyanide altogether."
+                )
+            else:
+                # a cyanide salt: HCN (pKa 9.2, CRC Handbook; from memory) is most of the cyanide at
+                # any pH below about 9, so a weak acid releases it too; only a basic solution holds it
+                if word == "an ammonium salt":
+                    how = " (an ammonium salt is a weak acid: a little at first, more as the mixture warms)"
+                elif based:
+                    how = " wherever the acid outweighs the base listed with it, and in quantity at an acidic work-up"
+                else:
+                    how = ""
+                fix = (
+                    "Keep cyanide solutions basic (pH above 10–11) and add acid only after the cyanide is consumed "
+                    "or destroyed; in a Sandmeyer cyanation neutralise the diazonium solution before it meets the "
+                    "cyanide; work in a fume hood and treat cyanide-containing waste with basic hypochlorite."
+                )
             yield r.finding(
-                f"{cyan[0].label} with {acomp.label} ({word}): hydrogen cyanide (HCN) is released"
-                + (" in small amounts at the pH of a reductive amination (about 5–7)" if mild and borohydride else "")
-                + (" in small amounts (the acid is weak or buffered)" if mild and not borohydride else "")
-                + ". HCN is a fast-acting poison; work in a fume hood and quench the aqueous waste with basic bleach. "
+                f"{cyan[0].label} with {acomp.label} ({word}): hydrogen cyanide (HCN) is released{how}. "
+                "HCN is a fast-acting poison; work in a fume hood and quench the aqueous waste with basic bleach. "
                 + SAFETY,
                 atoms=[(cyan[0].index, cyan[1])],
-                fix="Keep the mixture at pH 5 or above (acetic acid, not a strong acid), work in a fume hood, and treat "
-                "cyanide-containing waste with basic hypochlorite"
-                + ("; NaBH(OAc)3 avoids cyanide altogether." if borohydride else "."),
+                fix=fix,
                 severity="info" if mild else "warning",
             )

@@ -1398,9 +1398,22 @@ _HAZARDS = (
         "components slowly with cooling.",
     ),
     (
-        "oxidiser",
-        "Oxidiser or nitrating agent ({names}): keep away from organic solvents and reductants; nitrations are "
-        "strongly exothermic and can run away; control the temperature and the addition rate.",
+        "nitrating",
+        "Nitrating agent ({names}): nitrations are strongly exothermic and can run away; control the temperature "
+        "and the addition rate, and keep the agent away from organic solvents and reductants.",
+    ),
+    (
+        "peroxide",
+        "Peroxide ({names}): peroxides and peracids decompose exothermically, faster when heated or in contact "
+        "with metals, acids or bases, and can detonate when concentrated; never concentrate a mixture that still "
+        "holds peroxide: test for it (starch–iodide paper) and quench the excess (aqueous sodium sulfite or "
+        "thiosulfate) before the work-up.",
+    ),
+    (
+        "metal_oxidant",
+        "Strong oxidant ({names}): keep it away from organic solvents and reductants (dry residues can ignite) "
+        "and add it in portions with temperature control; chromium(VI) compounds are carcinogens and osmium "
+        "tetroxide is volatile and highly toxic.",
     ),
     (
         "hydride",
@@ -1468,8 +1481,12 @@ def _hazard_classes(ctx: Context, comp) -> set[str]:
             out.add("azide")
         elif g.name in ("hydrogen_halide", "sulfonic_acid", "perfluoro_acid", "nitric_acid") and not in_salt:
             out.add("strong_acid")
-        elif g.name in ("peroxide", "metal_oxo_oxidant", "nitrating_agent"):
-            out.add("oxidiser")
+        elif g.name == "peroxide":
+            out.add("peroxide")
+        elif g.name == "metal_oxo_oxidant":
+            out.add("metal_oxidant")
+        elif g.name == "nitrating_agent":
+            out.add("nitrating")
         elif g.name in ("boron_hydride", "aluminium_hydride", "hydride_ion"):
             out.add("cyanoborohydride" if comp.mol.HasSubstructMatch(_CYANOBOROHYDRIDE) else "hydride")
     if comp.mol.HasSubstructMatch(_PHOSGENE_TYPE):  # triphosgene is a carbonate to the catalog
@@ -1612,22 +1629,37 @@ def amide_from_unactivated_acid(ctx: Context):
         if additive is not None:
             # HOBt, HOAt, HOSu or Oxyma are used only beside a coupling agent: the record has left
             # the coupling agent out, which a chemist reads as an omission, not a failed reaction
+            dce = next((c for c in rxn.agents if c.smiles == "ClCCCl"), None)
             yield r.finding(
-                f"{amine.label} is drawn acylated by the carboxylic acid {acid.label} with {additive.label}, an additive "
-                "used beside a coupling agent, but no coupling agent is written: the record seems to leave it out.",
+                f"{amine.label} is drawn acylated by {_acid_words(acid)} with {additive.label}, an additive "
+                "used beside a coupling agent, but no coupling agent is written: the record seems to leave it out"
+                + (
+                    f" ({dce.label} is listed: the abbreviation EDC, used for both 1,2-dichloroethane and the "
+                    "carbodiimide coupling agent, may have been read as the solvent)."
+                    if dce is not None
+                    else "."
+                ),
                 atoms=[(amine.index, nb.reactant_atom), (acid.index, acid_atom)],
                 fix="Write the coupling agent (EDC·HCl, DIC, HATU, …) among the agents so the check can count it.",
                 severity="info",
             )
             return
         yield r.finding(
-            f"{amine.label} is drawn acylated by the carboxylic acid {acid.label}, but nothing here activates the "
+            f"{amine.label} is drawn acylated by {_acid_words(acid)}, but nothing here activates the "
             f"acid: {salt} Without a coupling agent the amide forms only on heating the salt above about 160 °C.",
             atoms=[(amine.index, nb.reactant_atom), (acid.index, acid_atom)],
             fix="Add a coupling agent (EDC·HCl with HOBt or Oxyma, HATU or PyBOP with DIPEA, CDI or T3P) to the "
             "agents, or make the acid chloride first (SOCl2, or oxalyl chloride with a drop of DMF).",
         )
         return
+
+
+def _acid_words(acid) -> str:
+    """'the carboxylic acid 1' for an unnamed acid (labelled 'acid 1'), the name for a named one."""
+    label = acid.label
+    if label.startswith("acid "):
+        return "the carboxylic " + label
+    return label if "acid" in label else f"the carboxylic acid {label}"
 
 
 # N-hydroxy coupling additives: HOBt, HOAt, HOSu, HOPO, Oxyma (Montalbetti & Falque 2005)
@@ -1682,9 +1714,10 @@ def hazard_caution(ctx: Context):
         acid chlorides and the hydrogen halide they release (and the exotherm of their reaction
         with amines), phosgene, diphosgene and triphosgene, water-reactive Lewis acids (with the
         hydrogen halide each releases: HBr from FeBr3, HCl from AlCl3; not tin(II) chloride, a
-        mild reductant), diazonium salts, azides, strong acids, oxidisers and nitrating agents,
-        hydride reagents, cyanoborohydride (HCN with acid) and isocyanates. One note per class, naming the
-        components. What forms in the flask is the subject of ``hazardous-species-formed``.
+        mild reductant), diazonium salts, azides, strong acids, nitrating agents, peroxides and
+        peracids (test for and quench the excess), metal-oxo oxidants (chromium(VI), OsO4),
+        hydride reagents, cyanoborohydride (HCN with acid) and isocyanates. One note per class,
+        naming the components. What forms in the flask is the subject of ``hazardous-species-formed``.
 
     Why it matters
         These are the reagents behind most bench incidents in amine chemistry: exposure to
