@@ -215,7 +215,7 @@ def check(reaction: str | Reaction, amounts: dict[str, str] | None = None) -> Re
 _GROUP_WORDS = (
     ("acid_halide", "acid chloride"), ("sulfonyl_halide", "sulfonyl chloride"), ("chloroformate", "chloroformate"),
     ("anhydride", "anhydride"), ("isocyanate", "isocyanate"), ("isothiocyanate", "isothiocyanate"),
-    ("sulfonic_acid", "sulfonic acid"),
+    ("sulfonic_acid", "sulfonic acid"), ("azide", "azide"),
     ("aldehyde", "aldehyde"), ("ketone", "ketone"), ("carboxylic_acid", "acid"), ("alkyl_halide", "alkyl halide"),
     ("alkyl_sulfonate", "alkyl sulfonate"), ("quaternary_ammonium", "ammonium salt"), ("nitro", "nitro compound"),
     ("aryl_halide", "aryl halide"), ("ester", "ester"),
@@ -223,6 +223,7 @@ _GROUP_WORDS = (
 _N_WORDS = {
     "primary_amine": "amine", "secondary_amine": "amine", "tertiary_amine": "amine", "aryl_amine": "aniline",
     "amide": "amide", "sulfonamide": "sulfonamide", "carbamate": "carbamate", "urea": "urea",
+    "hydrazine": "hydrazine",
 }
 
 
@@ -234,6 +235,7 @@ _RING_WORDS = tuple(
         ("[C-]#N", "cyanide"),
         ("[#1-,$([B-,Al-;!H0])]", "hydride"),
         ("[Li+,Na+,K+,Rb+,Cs+,Mg+2,Ca+2,Zn+2,Ba+2]", "metal ion"),
+        ("[Pd,Pt,Ni,Cu,Fe,Co,Rh,Ru,Ir,Mn,Cr,Ti,Zr,Sn,Ag,Au,Os,Mo,W,V,Ce,In,Bi,Hg]", "metal compound"),
         ("[N-]=[N+]=[N-]", "azide"),
         ("[O-][N]=O", "nitrite"),
         ("[OH-]", "hydroxide"),
@@ -265,7 +267,7 @@ _RING_WORDS = tuple(
 
 # the acylating and sulfonylating groups name their compound before any amine it carries
 _ACYL_WORDS = {"acid_halide", "sulfonyl_halide", "chloroformate", "anhydride", "isocyanate", "isothiocyanate"}
-_AMINE_KINDS = ("primary_amine", "secondary_amine", "aryl_amine", "tertiary_amine")
+_AMINE_KINDS = ("primary_amine", "secondary_amine", "aryl_amine", "tertiary_amine", "hydrazine")
 
 
 def _word_for(perception, role: str, mol=None) -> str:

@@ -89,3 +89,12 @@ def test_an_unnamed_acid_is_not_called_the_carboxylic_acid_acid():
         "OC(=O)c1ccc(C)cc1C.NCc1ccccc1>On1nnc2ccccc21.ClCCCl.CN(C)C=O>O=C(NCc1ccccc1)c1ccc(C)cc1C"
     ).by_rule("amide-from-unactivated-acid")
     assert "acid acid" not in f.message and "EDC" in f.message
+
+
+def test_hydrogen_chloride_beside_a_base_is_read_as_the_amine_salt():
+    # an amine hydrochloride freed with triethylamine (common practice) against HCl in dioxane
+    # removing a Boc group, where it is the free strong acid
+    salt = " ".join(_notes("NCc1ccccc1.Cl.CC(=O)Cl>CCN(CC)CC>CC(=O)NCc1ccccc1"))
+    assert "listed with a base" in salt
+    free = " ".join(_notes("CC(C)(C)OC(=O)NCc1ccccc1>Cl.C1COCCO1>NCc1ccccc1"))
+    assert "Strong acid (hydrogen chloride (a)): corrosive" in free and "listed with a base" not in free

@@ -128,6 +128,10 @@ def test_free_aniline_with_alcl3_is_one_error_with_both_reasons():
         # (camphorsulfonic acid; dodecylbenzenesulfonic acid; common practice)
         ("CC1(C)C2CCC1(CS(=O)(=O)O)C(=O)C2.CCN>>", "sulfonic acid 1"),
         ("CCCCCCCCCCCCc1ccccc1S(=O)(=O)O.O=P(Cl)(Cl)Cl>>", "sulfonic acid 1"),
+        # the reacting group names the compound: an organic azide, a hydrazine (the nucleophile
+        # of tert-butyl carbazate, not its carbamate); common practice
+        ("[N-]=[N+]=NCc1ccccc1.C#Cc1ccccc1>>", "azide 1"),
+        ("CC(C)(C)OC(=O)NN.O=C1CCCCC1>>", "hydrazine 1"),
     ],
 )
 def test_an_unnamed_compound_is_named_by_its_ring_system_or_group(reaction, label):

@@ -1458,6 +1458,20 @@ def _tin_ii(comp, g) -> bool:
 _ACIDIC_P_ANHYDRIDE = Chem.MolFromSmarts("[OX2H1][PX4](=O)[OX2][PX4]=O")
 
 
+_STRONG_ACID_WITH_BASE = (
+    "Strong acid ({names}), listed with a base: most likely the salt of an amine or neutralised in the flask; "
+    "as the free acid, as at an acidic work-up, it is corrosive and mixing it with amines and bases is exothermic."
+)
+
+
+def _acid_beside_a_base(ctx: Context, acids) -> bool:
+    """Hydrogen halides written beside a base among the agents (Et3N, a carbonate, hydroxide):
+    in reaction records that is mostly the hydrochloride of the amine, freed by the base."""
+    if not all(ctx.perception(c).has("hydrogen_halide") for c in acids):
+        return False
+    return any(ctx.perception(a).kind == "base" for a in ctx.reaction.agents if all(a is not c for c in acids))
+
+
 def _hazard_classes(ctx: Context, comp) -> set[str]:
     p = ctx.perception(comp)
     out = set()
@@ -1744,6 +1758,8 @@ def hazard_caution(ctx: Context):
         comps = found.get(cls)
         if not comps:
             continue
+        if cls == "strong_acid" and _acid_beside_a_base(ctx, comps):
+            text = _STRONG_ACID_WITH_BASE
         labels = list(dict.fromkeys(c.label for c in comps))
         names = ", ".join(labels)
         heading, _, rest = text.partition(" ({names})")
