@@ -98,3 +98,11 @@ def test_hydrogen_chloride_beside_a_base_is_read_as_the_amine_salt():
     assert "listed with a base" in salt
     free = " ".join(_notes("CC(C)(C)OC(=O)NCc1ccccc1>Cl.C1COCCO1>NCc1ccccc1"))
     assert "Strong acid (hydrogen chloride (a)): corrosive" in free and "listed with a base" not in free
+
+
+def test_iron_ii_is_not_a_water_reactive_lewis_acid():
+    # iron(III) chloride fumes and hydrolyses violently (Bretherick, iron(III) chloride); the
+    # iron(II) of a ferrocene ligand written as ions does not
+    assert "Water-reactive Lewis acid" in " ".join(_notes("c1ccccc1.ClCl>Cl[Fe](Cl)Cl>Clc1ccccc1"))
+    fe2 = _notes("Brc1ccccc1.OB(O)c1ccccc1>[Fe+2].[Cl-].[Cl-].[Pd]>c1ccc(-c2ccccc2)cc1")
+    assert not [n for n in fe2 if "Water-reactive Lewis acid" in n]

@@ -1160,6 +1160,12 @@ def _water_reactive(comp, g) -> bool:
     practice: S. Kobayashi's water-compatible Lewis acids)."""
     if g.detail not in _WATER_REACTIVE_LA or _tin_ii(comp, g):
         return False
+    if g.detail == "Fe":
+        # iron(III) halides fume and hydrolyse violently; iron(II) (FeCl2, the iron of a
+        # ferrocene ligand written as ions) does not (common practice)
+        metal = comp.mol.GetAtomWithIdx(g.centre)
+        if metal.GetDegree() + metal.GetFormalCharge() < 3:
+            return False
     if g.detail == "Si":
         return True
     metal = comp.mol.GetAtomWithIdx(g.centre)
@@ -1172,6 +1178,8 @@ def _water_reactive(comp, g) -> bool:
 
 
 _SOLVOLYSIS_FAMILIES = {"acylation", "sulfonylation", "urea", "protection"}
+# pyridine and the picolines and lutidines: bases that are often the solvent too (common practice)
+_PYRIDINE_SOLVENT = Chem.MolFromSmarts("[nX2;r6;!$(n[#7])]1ccccc1")
 
 
 def _solvolysis_understood(ctx: Context, r, u, reactive):
@@ -1187,9 +1195,15 @@ def _solvolysis_understood(ctx: Context, r, u, reactive):
     aqueous_base = any(
         ctx.perception(c).has("hydroxide", "carbonate") for c in ctx.reaction.reactants + ctx.reaction.agents
     )
+    reactive_index = {comp.index for comp, _, _ in reactive}
     if u.family in ("acylation", "sulfonylation") and water and aqueous_base and u.electrophile is not None:
         elec = comps[u.electrophile[0]]
+        if elec.index not in reactive_index or not u.nucleophile:
+            return  # a carboxylic acid coupled (its agent is the acylating one), or nothing to name
         nuc = comps[u.nucleophile[0]]
+        site = next((x for x in ctx.sites(nuc) if x.atom_index == u.nucleophile[1]), None)
+        if site is None or site.pka is None or site.pka < 0.0:
+            return  # not an amine (an indole or amide N-H under phase-transfer conditions)
         yield r.finding(
             f"Schotten–Baumann conditions: {elec.label} with {nuc.label} and aqueous base. The amine outcompetes "
             "water when the electrophile is added slowly, cold and with vigorous stirring; some hydrolysis is "
@@ -1201,6 +1215,17 @@ def _solvolysis_understood(ctx: Context, r, u, reactive):
         return
     if not protic or len(protic) < len(solvents):
         return  # an aprotic solvent is the reaction's: water or alcohol is co-solvent or work-up
+    from .hazards import _aprotic_solvent
+
+    elec_index = u.electrophile[0] if u.electrophile else None
+    for c in ctx.reaction.agents:
+        if c in protic or c.index == elec_index:
+            continue
+        pyridine_like = c.mol.HasSubstructMatch(_PYRIDINE_SOLVENT)
+        if (pyridine_like or u.role(c) != "base") and (_aprotic_solvent(c) or ctx.perception(c).has("anhydride")):
+            # a liquid that serves as the solvent under another role (pyridine as the base,
+            # acetic anhydride as the dehydrating agent): the water or alcohol is the work-up
+            return
     for comp, g, what in reactive:
         pc = protic[0]
         word = "water" if ctx.perception(pc).has("water") else "the alcohol"
