@@ -23,6 +23,7 @@ from rdkit.Chem import rdMolDescriptors
 
 from ._memo import Memo
 from .reading.reaction import Component, Reaction
+from .understand.graph import graph_of
 
 __all__ = ["Balance", "balance", "element_counts"]
 
@@ -202,6 +203,13 @@ _REDUCING = Chem.MolFromSmarts("[$([H][H]),$([#1-]),Pd,Pt,Ni,Rh,Ru,Ir,$([#5,#13,
 # halide ions: the leaving group of a substitution by an anion drawn without its counter-ion
 # (cyanide, azide, a sulfinate); alone and once, never combined with other by-products
 _IONS = frozenset({"chloride", "bromide", "iodide"})
+def _reducing(comp: Component) -> bool:
+    symbols = set(graph_of(comp).symbol)  # element symbols, remembered per component text
+    if symbols & {"H", "Pd", "Pt", "Ni", "Rh", "Ru", "Ir"}:
+        return comp.mol.HasSubstructMatch(_REDUCING)
+    return bool(symbols & {"B", "Al", "Si"}) and comp.mol.HasSubstructMatch(_REDUCING)
+
+
 # a benzyl group leaves as toluene only by hydrogenolysis
 _HYDROGENOLYSIS_ONLY = frozenset({"toluene"})
 
@@ -234,7 +242,7 @@ def balance(reaction: Reaction) -> Balance:
         same = next((c for c in reaction.agents if c.smiles == prod.smiles and c not in reactants), None)
         if same is not None:
             reactants.append(same)
-    reducing = any(c.mol.HasSubstructMatch(_REDUCING) for c in reaction.reactants + reaction.agents)
+    reducing = any(_reducing(c) for c in reaction.reactants + reaction.agents)
     key = (tuple(c.smiles for c in reactants), tuple(c.smiles for c in products), reducing)
     hit = _BALANCED.get(key)
     if hit is None:
