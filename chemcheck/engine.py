@@ -215,7 +215,7 @@ def check(reaction: str | Reaction, amounts: dict[str, str] | None = None) -> Re
 _GROUP_WORDS = (
     ("acid_halide", "acid chloride"), ("sulfonyl_halide", "sulfonyl chloride"), ("chloroformate", "chloroformate"),
     ("anhydride", "anhydride"), ("isocyanate", "isocyanate"), ("isothiocyanate", "isothiocyanate"),
-    ("sulfonic_acid", "sulfonic acid"), ("azide", "azide"),
+    ("sulfonic_acid", "sulfonic acid"), ("azide", "azide"), ("peroxide", "peroxide"),
     ("aldehyde", "aldehyde"), ("ketone", "ketone"), ("carboxylic_acid", "acid"), ("alkyl_halide", "alkyl halide"),
     ("alkyl_sulfonate", "alkyl sulfonate"), ("quaternary_ammonium", "ammonium salt"), ("nitro", "nitro compound"),
     ("aryl_halide", "aryl halide"), ("ester", "ester"),

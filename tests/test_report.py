@@ -132,6 +132,7 @@ def test_free_aniline_with_alcl3_is_one_error_with_both_reasons():
         # of tert-butyl carbazate, not its carbamate); common practice
         ("[N-]=[N+]=NCc1ccccc1.C#Cc1ccccc1>>", "azide 1"),
         ("CC(C)(C)OC(=O)NN.O=C1CCCCC1>>", "hydrazine 1"),
+        ("O=C(OOC(=O)c1ccccc1)c1ccccc1.Cc1ccccc1>>", "peroxide 1"),
     ],
 )
 def test_an_unnamed_compound_is_named_by_its_ring_system_or_group(reaction, label):
