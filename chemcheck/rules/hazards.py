@@ -267,7 +267,8 @@ def hazardous_species_formed(ctx: Context):
         warning when the nitrosamine is not the product drawn); organic azides, with the
         carbon-and-oxygen to nitrogen ratio; hydrazoic acid (HN3) from an azide salt with an
         acid (a warning with a strong or carboxylic acid, an info note with an ammonium salt,
-        as in tetrazole syntheses); isocyanates drawn, or formed from an acyl azide or DPPA
+        as in tetrazole syntheses); diazidomethane from an azide salt listed with dichloromethane
+        (a warning); isocyanates drawn, or formed from an acyl azide or DPPA
         (Curtius) or a phosgene-type reagent and an amine; HCN from a cyanide salt or
         cyanoborohydride with an acid (a warning with a strong acid, an info note with acetic
         acid, the usual buffer of a reductive amination).
@@ -352,6 +353,8 @@ def hazardous_species_formed(ctx: Context):
             continue
         c, o, n = _azide_ratio(comp.mol)
         ratio = (c + o) / n if n else float("inf")
+        if ratio >= 3 and comp.role != "product":
+            continue  # a stable azide reagent (DPPA, benzyl azide): the hazard-caution note covers it
         if ratio < 1:
             verdict, sev = (
                 ": below 1, never to be isolated; make and use it in solution only (rule of thumb). ", "warning")
@@ -386,6 +389,21 @@ def hazardous_species_formed(ctx: Context):
             fix="Keep azide mixtures neutral or basic where the route allows, vent through a basic scrubber, keep the "
             "scale small, and never concentrate an acidic azide solution.",
             severity="warning" if strong else "info",
+        )
+
+    # diazidomethane from an azide salt and dichloromethane (Bretherick's Handbook, sodium azide;
+    # R. E. Conrow, W. D. Dean, Org. Process Res. Dev. 2008, 12, 1285, from memory): also when the
+    # dichloromethane is a previous step's solvent or the extraction solvent
+    dcm = next((c for c in pool if c.smiles == "ClCCl"), None)
+    ionic_azide = _any(pool, _AZIDE_ION)
+    if ionic_azide and dcm is not None:
+        yield r.finding(
+            f"{ionic_azide[0].label} with {dcm.label}: azide ion and dichloromethane form diazidomethane, a "
+            "highly explosive liquid that concentrates in the organic phase and on evaporation. " + SAFETY,
+            atoms=[(ionic_azide[0].index, ionic_azide[1])],
+            fix="Keep dichloromethane away from azide salts: remove it completely before the azide step, and "
+            "extract azide-containing mixtures with another solvent (ethyl acetate, MTBE, toluene).",
+            severity="warning",
         )
 
     # isocyanates: drawn, or formed (Curtius, phosgene-type reagent with an amine)
