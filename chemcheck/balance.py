@@ -80,7 +80,8 @@ def _by_product_vectors() -> tuple[tuple[str, str, Counter, int], ...]:
 _FORMED: dict[str, dict[str, tuple[str, ...]]] = {
     "CO2": {"product": ("[#6](~[#8])~[#8]",), "reactant": ("[#6](~[#8])~[#8]",)},
     "CO": {"product": ("[#6](=[#8])[#6]=[#8]", "[CX3H1](=O)[#7,#8]", "[#6-]#[#8+]"), "reactant": ("[#6]=[#8]",)},
-    "isobutylene": {"product": ("[CX4]([CH3])([CH3])([CH3])[#8,#7]",), "reactant": ()},  # Boc removal
+    # Boc removal; as a reagent, only where a product gains a tert-butyl ester, ether or amine
+    "isobutylene": {"product": ("[CX4]([CH3])([CH3])([CH3])[#8,#7]",), "reactant": ("[CX4]([CH3])([CH3])([CH3])[#8,#7]",)},
     "H2": {"product": ("[#1-]", "[#5,#13,#14;!H0]", "[Li,Na,K,Mg,Ca,Zn]"), "reactant": ()},
     # HNO3 leaves only from a nitrate (nitric acid, a nitrate ester or salt, an acyl nitrate): a
     # C-nitro group that vanishes is reduced, not cut off as nitric acid
@@ -132,6 +133,22 @@ def _cut_from(name: str, mols: tuple[Chem.Mol, ...], side: str) -> bool:
             if extra <= 2:
                 return True
     return False
+
+
+# Acids a hydrolysis frees from an amide or sulfonamide (N-deacetylation, removal of a
+# trifluoroacetyl, tosyl or mesyl group): the acyl part as it stands on the nitrogen, the OH
+# supplied by the water (common practice).
+_HYDROLYSIS_ACIDS = {
+    "acetic acid": "[CH3][CX3](=O)[#7]",
+    "trifluoroacetic acid": "FC(F)(F)[CX3](=O)[#7]",
+    "p-toluenesulfonic acid": "[CH3]c1ccc(cc1)[SX4](=O)(=O)[#7]",
+    "methanesulfonic acid": "[CH3][SX4](=O)(=O)[#7]",
+}
+
+
+@lru_cache(maxsize=1)
+def _hydrolysis_queries() -> dict[str, Chem.Mol]:
+    return {name: Chem.MolFromSmarts(q) for name, q in _HYDROLYSIS_ACIDS.items()}
 
 
 @dataclass(frozen=True)
@@ -261,7 +278,7 @@ def _reagent_and_by_product(diff: Counter, q: int, cut, reducing: bool = False) 
         for found in options:
             if any(m.name in _IONS for m in found):
                 continue  # a halide ion leaves alone, from an anion that substitutes it
-            if all(cut(m.name, "product") for m in found):
+            if all(cut(m.name, "product", name == "H2O") for m in found):
                 right = [Missing(m.name, m.formula, m.count, "product") for m in found]
                 break
         # one by-product; two under hydrogenolysis (a Cbz group leaves as toluene and CO2)
@@ -347,20 +364,28 @@ def _balance(reactants: list[Component], products: list[Component], reducing: bo
         "reactant": tuple(c.mol for c in products),  # a left-out reagent ends up in a product
     }
 
-    cuts: dict[tuple[str, str], bool] = {}  # (by-product, side) -> can come from that side
+    cuts: dict[tuple[str, str, bool], bool] = {}  # (by-product, side, by hydrolysis) -> can come from that side
 
-    def cut(name: str, side: str) -> bool:
-        hit = cuts.get((name, side))
+    def cut(name: str, side: str, hydrolysis: bool = False) -> bool:
+        key = (name, side, hydrolysis and name in _HYDROLYSIS_ACIDS)
+        hit = cuts.get(key)
         if hit is None:
             if name in _HYDROGENOLYSIS_ONLY and not reducing:
-                hit = cuts[(name, side)] = False
+                hit = False
             else:
-                hit = cuts[(name, side)] = _cut_from(name, sources[side], side)
+                hit = _cut_from(name, sources[side], side)
+            if not hit and key[2]:
+                # the acid freed by hydrolysing an amide or sulfonamide: its OH comes from the water
+                query = _hydrolysis_queries()[name]
+                hit = any(m.HasSubstructMatch(query) for m in sources[side])
+            cuts[key] = hit
         return hit
+
+    water_drawn = any(c.smiles == "O" for c in reactants)  # a hydrolysis with its water written
 
     def lookup(vec: Counter, q: int, side: str) -> list[Missing] | None:
         for found in table.get(_key(vec) | {("__q", q)}, ()):
-            if all(cut(m.name, side) for m in found):
+            if all(cut(m.name, side, water_drawn and side == "product") for m in found):
                 return [Missing(m.name, m.formula, m.count, side) for m in found]
         return None
 

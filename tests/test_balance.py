@@ -31,6 +31,10 @@ def missing(text):
         # ether hydrolysed gives the alcohol and trimethylsilanol (common practice)
         ("CCCCBr.[C-]#N>>CCCCC#N", [("bromide", 1, "product")]),
         ("C[Si](C)(C)OCCCC>>OCCCC", [("H2O", 1, "reactant"), ("trimethylsilanol", 1, "product")]),
+        # an acetanilide hydrolysed in aqueous acid: the aniline and acetic acid, the OH of the
+        # acid from the water (common practice)
+        ("CC(=O)Nc1ccccc1>O.Cl>Nc1ccccc1", [("H2O", 1, "reactant"), ("acetic acid", 1, "product")]),
+        ("CC(=O)Nc1ccccc1.O>Cl>Nc1ccccc1", [("acetic acid", 1, "product")]),
     ],
 )
 def test_missing_by_products_are_named(reaction, expected):
