@@ -42,6 +42,8 @@ BY_PRODUCTS: tuple[tuple[str, str], ...] = (
     ("phenol", "Oc1ccccc1"), ("p-nitrophenol", "Oc1ccc(cc1)[N+](=O)[O-]"), ("HOBt", "On1nnc2ccccc21"),
     ("N-hydroxysuccinimide", "O=C1CCC(=O)N1O"), ("toluene", "Cc1ccccc1"),
     ("trimethylsilanol", "C[Si](C)(C)O"), ("chloride", "[Cl-]"), ("bromide", "[Br-]"), ("iodide", "[I-]"),
+    ("ethyl chloride", "CCCl"), ("ethyl bromide", "CCBr"), ("ethyl iodide", "CCI"),
+    ("methyl chloride", "CCl"), ("methyl bromide", "CBr"), ("methyl iodide", "CI"),
 )
 
 
@@ -77,12 +79,19 @@ def _by_product_vectors() -> tuple[tuple[str, str, Counter, int], ...]:
 # oxalyl, formyl-O/N or metal carbonyl unit, isobutylene from a tert-butyl ester, carbamate or
 # ether (acidic removal of Boc and tBu groups), H2 from a hydride or an active metal. Reactant side
 # (a reagent needed on the left): CO2 and CO must end up on a product carbon. Common practice.
+_NEVER = "[!*]"  # a query no molecule matches
 _FORMED: dict[str, dict[str, tuple[str, ...]]] = {
     "CO2": {"product": ("[#6](~[#8])~[#8]",), "reactant": ("[#6](~[#8])~[#8]",)},
     "CO": {"product": ("[#6](=[#8])[#6]=[#8]", "[CX3H1](=O)[#7,#8]", "[#6-]#[#8+]"), "reactant": ("[#6]=[#8]",)},
     # Boc removal; as a reagent, only where a product gains a tert-butyl ester, ether or amine
     "isobutylene": {"product": ("[CX4]([CH3])([CH3])([CH3])[#8,#7]",), "reactant": ("[CX4]([CH3])([CH3])([CH3])[#8,#7]",)},
     "H2": {"product": ("[#1-]", "[#5,#13,#14;!H0]", "[Li,Na,K,Mg,Ca,Zn]"), "reactant": ()},
+    # the alkyl halide of a Michaelis-Arbuzov reaction: from a trialkyl phosphite (or a
+    # phosphonite) and the halide it displaces; never a reagent the equation asks for
+    **{
+        name: {"product": ("[CH3,$([CH2][CH3])][OX2][PX3]",), "reactant": (_NEVER,)}
+        for name in ("ethyl chloride", "ethyl bromide", "ethyl iodide", "methyl chloride", "methyl bromide", "methyl iodide")
+    },
     # HNO3 leaves only from a nitrate (nitric acid, a nitrate ester or salt, an acyl nitrate): a
     # C-nitro group that vanishes is reduced, not cut off as nitric acid
     "HNO3": {

@@ -35,6 +35,9 @@ def missing(text):
         # acid from the water (common practice)
         ("CC(=O)Nc1ccccc1>O.Cl>Nc1ccccc1", [("H2O", 1, "reactant"), ("acetic acid", 1, "product")]),
         ("CC(=O)Nc1ccccc1.O>Cl>Nc1ccccc1", [("acetic acid", 1, "product")]),
+        # Michaelis-Arbuzov: triethyl phosphite and benzyl bromide give the phosphonate and ethyl
+        # bromide (A. K. Bhattacharya, G. Thyagarajan, Chem. Rev. 1981, 81, 415; from memory)
+        ("CCOP(OCC)OCC.BrCc1ccccc1>>CCOP(=O)(Cc1ccccc1)OCC", [("ethyl bromide", 1, "product")]),
     ],
 )
 def test_missing_by_products_are_named(reaction, expected):
@@ -229,3 +232,9 @@ def test_a_halide_ion_is_not_offered_beside_another_reagent():
     # thiocyanate adding to an amine gains a proton from the medium: not "HCl in, chloride out"
     b, got = missing("N#C[S-].Nc1ccccc1>>NC(=S)Nc1ccccc1")
     assert not b.balanced and got == []
+
+
+def test_an_alkyl_halide_is_named_only_from_a_phosphite():
+    # methyl iodide and an amine: HI leaves, not a made-up methyl iodide by-product
+    _, got = missing("CN.CI>>CNC")
+    assert got == [("HI", 1, "product")]
