@@ -44,6 +44,9 @@ BY_PRODUCTS: tuple[tuple[str, str], ...] = (
     ("trimethylsilanol", "C[Si](C)(C)O"), ("chloride", "[Cl-]"), ("bromide", "[Br-]"), ("iodide", "[I-]"),
     ("ethyl chloride", "CCCl"), ("ethyl bromide", "CCBr"), ("ethyl iodide", "CCI"),
     ("methyl chloride", "CCl"), ("methyl bromide", "CBr"), ("methyl iodide", "CI"),
+    ("3-chlorobenzoic acid", "OC(=O)c1cccc(Cl)c1"),
+    ("DMSO (and the proton the base takes)", "CS(C)=O.[H+]"),
+    ("dimethyl sulfide (and the proton the base takes)", "CSC.[H+]"),
 )
 
 
@@ -91,6 +94,12 @@ _FORMED: dict[str, dict[str, tuple[str, ...]]] = {
     **{
         name: {"product": ("[CH3,$([CH2][CH3])][OX2][PX3]",), "reactant": (_NEVER,)}
         for name in ("ethyl chloride", "ethyl bromide", "ethyl iodide", "methyl chloride", "methyl bromide", "methyl iodide")
+    },
+    # a sulfoxonium or sulfonium ylide (Corey-Chaykovsky) leaves DMSO or dimethyl sulfide; the
+    # base takes the proton of the salt
+    "DMSO (and the proton the base takes)": {"product": ("[S+]([CH3])([CH3])=O",), "reactant": (_NEVER,)},
+    "dimethyl sulfide (and the proton the base takes)": {
+        "product": ("[S+;X3]([CH3])([CH3])[CH3]",), "reactant": (_NEVER,),
     },
     # HNO3 leaves only from a nitrate (nitric acid, a nitrate ester or salt, an acyl nitrate): a
     # C-nitro group that vanishes is reduced, not cut off as nitric acid

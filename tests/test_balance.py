@@ -38,6 +38,14 @@ def missing(text):
         # Michaelis-Arbuzov: triethyl phosphite and benzyl bromide give the phosphonate and ethyl
         # bromide (A. K. Bhattacharya, G. Thyagarajan, Chem. Rev. 1981, 81, 415; from memory)
         ("CCOP(OCC)OCC.BrCc1ccccc1>>CCOP(=O)(Cc1ccccc1)OCC", [("ethyl bromide", 1, "product")]),
+        # an N-oxidation with mCPBA leaves 3-chlorobenzoic acid; a Corey-Chaykovsky epoxidation
+        # with trimethylsulfoxonium leaves DMSO, its proton taken by the base (E. J. Corey,
+        # M. Chaykovsky, J. Am. Chem. Soc. 1965, 87, 1353; from memory)
+        ("CN1CCCCC1.O=C(OO)c1cccc(Cl)c1>ClCCl>C[N+]1([O-])CCCCC1", [("3-chlorobenzoic acid", 1, "product")]),
+        (
+            "C[S+](C)(C)=O.O=C1CCCCC1>CS(C)=O.[H-].[Na+]>C1CCC2(CC1)CO2",
+            [("DMSO (and the proton the base takes)", 1, "product")],
+        ),
     ],
 )
 def test_missing_by_products_are_named(reaction, expected):
