@@ -1497,6 +1497,14 @@ def _acid_beside_a_base(ctx: Context, acids) -> bool:
     return any(ctx.perception(a).kind == "base" for a in ctx.reaction.agents if all(a is not c for c in acids))
 
 
+# reactive groups whose hazard class needs no further test
+_PLAIN_HAZARD_CLASS = {
+    "sulfur_trioxide": "sulfonating", "chlorosulfonic_acid": "sulfonating", "diazonium": "diazonium",
+    "isocyanate": "isocyanate", "azide": "azide", "peroxide": "peroxide", "metal_oxo_oxidant": "metal_oxidant",
+    "nitrating_agent": "nitrating",
+}
+
+
 def _hazard_classes(ctx: Context, comp) -> set[str]:
     p = ctx.perception(comp)
     out = set()
@@ -1510,22 +1518,10 @@ def _hazard_classes(ctx: Context, comp) -> set[str]:
             out.add("phosgene" if comp.mol.HasSubstructMatch(_PHOSGENE_TYPE) else "acid_chloride")
         elif g.name == "lewis_acid" and _water_reactive(comp, g) and not _tin_ii(comp, g):
             out.add("lewis_acid")
-        elif g.name in ("sulfur_trioxide", "chlorosulfonic_acid"):
-            out.add("sulfonating")
-        elif g.name == "diazonium":
-            out.add("diazonium")
-        elif g.name == "isocyanate":
-            out.add("isocyanate")
-        elif g.name == "azide":
-            out.add("azide")
+        elif g.name in _PLAIN_HAZARD_CLASS:
+            out.add(_PLAIN_HAZARD_CLASS[g.name])
         elif g.name in ("hydrogen_halide", "sulfonic_acid", "perfluoro_acid", "nitric_acid") and not in_salt:
             out.add("strong_acid")
-        elif g.name == "peroxide":
-            out.add("peroxide")
-        elif g.name == "metal_oxo_oxidant":
-            out.add("metal_oxidant")
-        elif g.name == "nitrating_agent":
-            out.add("nitrating")
         elif g.name in ("boron_hydride", "aluminium_hydride", "hydride_ion"):
             out.add("cyanoborohydride" if comp.mol.HasSubstructMatch(_CYANOBOROHYDRIDE) else "hydride")
     if comp.mol.HasSubstructMatch(_PHOSGENE_TYPE):  # triphosgene is a carbonate to the catalog

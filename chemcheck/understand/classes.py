@@ -19,7 +19,7 @@ from .. import _rdlog
 from .._memo import Memo
 from ..reading.reaction import Reaction
 from .centre import BondChange, Centre
-from .graph import graph_of
+from .graph import graph_of, text_key
 
 __all__ = ["ReactionClass", "ClassMatch", "catalog", "classify", "OTHER"]
 
@@ -126,7 +126,7 @@ class _Matcher:
         self._mols = {c.index: c.mol for c in rxn.components}
         self._hits: dict[int, dict[str, frozenset[int]]] = {}
         for c in rxn.components:
-            key = (c.text, c.smiles, c.mol.GetNumAtoms(), c.mol.GetNumBonds())
+            key = text_key(c)
             table = _HITS.get(key)
             if table is None:
                 table = _HITS.put(key, {})

@@ -15,7 +15,7 @@ from rdkit import Chem
 
 from .._memo import Memo
 
-__all__ = ["Graph", "graph_of", "bond_order"]
+__all__ = ["Graph", "graph_of", "text_key", "bond_order"]
 
 _AROMATIC = Chem.BondType.AROMATIC
 _DATIVE = Chem.BondType.DATIVE
@@ -81,6 +81,12 @@ def build(mol: Chem.Mol) -> Graph:
 _BY_TEXT = Memo(4096)  # (text as written, SMILES, atoms, bonds) -> Graph
 
 
+def text_key(comp) -> tuple:
+    """The key of answers remembered per component as written: the same text gives the same
+    molecule in the same atom order (the SMILES and size guard against a molecule replaced)."""
+    return (comp.text, comp.smiles, comp.mol.GetNumAtoms(), comp.mol.GetNumBonds())
+
+
 def graph_of(comp) -> Graph:
     """The tables of ``comp.mol``, built on first use and kept on the component (rebuilt if its
     molecule is replaced). The same text gives the same molecule in the same atom order, so the
@@ -89,7 +95,7 @@ def graph_of(comp) -> Graph:
     hit = comp.__dict__.get("_graph")
     if hit is not None and hit[0] is mol:
         return hit[1]
-    key = (comp.text, comp.smiles, mol.GetNumAtoms(), mol.GetNumBonds())
+    key = text_key(comp)
     g = _BY_TEXT.get(key)
     if g is None:
         g = _BY_TEXT.put(key, build(mol))
